@@ -1,0 +1,105 @@
+/**
+ * Fast per-direction measures: a few dot products per facet and one per vertex. The support figure
+ * here is only a proxy (each overhang facet's column reaches the bed); the height field in
+ * support.ts refines the best directions.
+ */
+import type { FacetData } from "./geometry";
+import type { Mat3 } from "./rotation";
+
+/** A facet rests on the bed when it faces down within 2° and lies within bedEps of the bed. */
+const COS_CONTACT = Math.cos((2 * Math.PI) / 180);
+
+export interface QuickMetrics {
+  overhangArea: number;
+  bedContactArea: number;
+  height: number;
+  /** Σ overhang area projected on the bed × centroid height: support if nothing lay below. */
+  supportProxy: number;
+  /** Vertices lowest and highest along the up axis (extreme points, reused for footprints). */
+  lowVertex: number;
+  highVertex: number;
+}
+
+/** `m` is the rotation into the print frame; its third row is "up" in the file's frame. */
+export function quickMetrics(
+  f: FacetData,
+  vertices: Float32Array,
+  m: Mat3,
+  sinTheta: number,
+  bedEps: number,
+): QuickMetrics {
+  const ux = m[6], uy = m[7], uz = m[8];
+  let lo = Infinity, hi = -Infinity, lowVertex = 0, highVertex = 0;
+  const nv = vertices.length / 3;
+  for (let i = 0; i < nv; i++) {
+    const h = ux * vertices[3 * i]! + uy * vertices[3 * i + 1]! + uz * vertices[3 * i + 2]!;
+    if (h < lo) { lo = h; lowVertex = i; }
+    if (h > hi) { hi = h; highVertex = i; }
+  }
+  let overhangArea = 0, bedContactArea = 0, supportProxy = 0;
+  const N = f.normals, C = f.centroids, A = f.areas;
+  const bedTop = lo + bedEps;
+  for (let t = 0; t < f.count; t++) {
+    // n · down, with down = −up.
+    const nd = -(ux * N[3 * t]! + uy * N[3 * t + 1]! + uz * N[3 * t + 2]!);
+    if (nd <= sinTheta) continue;
+    const hc = ux * C[3 * t]! + uy * C[3 * t + 1]! + uz * C[3 * t + 2]!;
+    const a = A[t]!;
+    if (nd >= COS_CONTACT && hc <= bedTop) bedContactArea += a;
+    else {
+      overhangArea += a;
+      supportProxy += a * nd * (hc - lo);
+    }
+  }
+  return { overhangArea, bedContactArea, height: hi - lo, supportProxy, lowVertex, highVertex };
+}
+
+/**
+ * The turn about Z (0 to 90°, in `steps` steps) giving the smallest bounding rectangle of
+ * `pointIdx` after rotation by m. Turn 0 is kept unless another saves more than 1 % of area, so
+ * boxy parts keep the file's own alignment.
+ */
+export function bestSpin(vertices: Float32Array, pointIdx: ArrayLike<number>, m: Mat3, steps = 30): { spin: number; footprint: [number, number] } {
+  const k = pointIdx.length;
+  const xs = new Float64Array(k), ys = new Float64Array(k);
+  for (let j = 0; j < k; j++) {
+    const i = pointIdx[j]! * 3;
+    const x = vertices[i]!, y = vertices[i + 1]!, z = vertices[i + 2]!;
+    xs[j] = m[0] * x + m[1] * y + m[2] * z;
+    ys[j] = m[3] * x + m[4] * y + m[5] * z;
+  }
+  let best = { spin: 0, footprint: [0, 0] as [number, number] };
+  let bestArea = Infinity;
+  for (let s = 0; s < steps; s++) {
+    const a = (s * Math.PI) / 2 / steps;
+    const c = Math.cos(a), sn = Math.sin(a);
+    let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
+    for (let j = 0; j < k; j++) {
+      const px = c * xs[j]! - sn * ys[j]!, py = sn * xs[j]! + c * ys[j]!;
+      if (px < x0) x0 = px;
+      if (px > x1) x1 = px;
+      if (py < y0) y0 = py;
+      if (py > y1) y1 = py;
+    }
+    const area = (x1 - x0) * (y1 - y0);
+    if (s === 0 || area < bestArea * 0.99) {
+      bestArea = area;
+      best = { spin: a, footprint: [x1 - x0, y1 - y0] };
+    }
+  }
+  return best;
+}
+
+/** Exact bounding rectangle of all vertices after rotation by m. */
+export function footprintOf(vertices: Float32Array, m: Mat3): [number, number] {
+  let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity;
+  for (let i = 0; i + 2 < vertices.length; i += 3) {
+    const x = vertices[i]!, y = vertices[i + 1]!, z = vertices[i + 2]!;
+    const px = m[0] * x + m[1] * y + m[2] * z, py = m[3] * x + m[4] * y + m[5] * z;
+    if (px < x0) x0 = px;
+    if (px > x1) x1 = px;
+    if (py < y0) y0 = py;
+    if (py > y1) y1 = py;
+  }
+  return [x1 - x0, y1 - y0];
+}

@@ -1,0 +1,152 @@
+/**
+ * Orientation search: fast measures for every candidate direction, then the height-field support
+ * estimate and exact footprint for the best few, ranked by the score in score.ts.
+ */
+import type { IndexedMesh, TriangleSoup, Vec3 } from "@/lib/mesh/types";
+import { candidateDirections, type CandidateDirection } from "./directions";
+import { fitPrinters } from "./fit";
+import { boundsOf, facetData, indexedVolume, weld } from "./geometry";
+import { bestSpin, footprintOf, quickMetrics, type QuickMetrics } from "./metrics";
+import { rotatePoints, rotationForDown, type Rotation } from "./rotation";
+import { DEFAULT_WEIGHTS, orientationScore, type ScoreScale } from "./score";
+import { supportVolumeHeightField } from "./support";
+import { SearchCancelledError, type OrientOptions, type OrientationCandidate, type OrientationResult } from "./types";
+
+/** Candidates closer than this to a better one are not shown side by side (radians, 5°). */
+const DISTINCT_ANGLE = (5 * Math.PI) / 180;
+
+/** Lets a worker's message handler run (so a cancel can arrive) about every 30 ms of work. */
+export function makeTicker(signal: OrientOptions["signal"], onProgress: OrientOptions["onProgress"]) {
+  let last = Date.now();
+  return async (fraction: number) => {
+    if (signal?.aborted) throw new SearchCancelledError();
+    onProgress?.(fraction);
+    if (Date.now() - last > 30) {
+      await new Promise<void>((r) => setTimeout(r, 0));
+      last = Date.now();
+      if (signal?.aborted) throw new SearchCancelledError();
+    }
+  };
+}
+
+interface Evaluated {
+  cand: CandidateDirection;
+  rot: Rotation;
+  quick: QuickMetrics;
+  proxyScore: number;
+}
+
+function angleBetween(a: Vec3, b: Vec3): number {
+  return Math.acos(Math.max(-1, Math.min(1, a[0] * b[0] + a[1] * b[1] + a[2] * b[2])));
+}
+
+/** Picks up to n best-first entries no two of which are within DISTINCT_ANGLE. */
+function pickDistinct<T extends { down: Vec3 }>(sorted: T[], n: number): T[] {
+  const out: T[] = [];
+  for (const e of sorted) {
+    if (out.length >= n) break;
+    if (out.some((o) => angleBetween(o.down, e.down) < DISTINCT_ANGLE)) continue;
+    out.push(e);
+  }
+  return out;
+}
+
+export async function searchOrientations(soup: TriangleSoup, options: OrientOptions = {}): Promise<OrientationResult> {
+  return searchOrientationsIndexed(weld(soup.positions), options);
+}
+
+export async function searchOrientationsIndexed(mesh: IndexedMesh, options: OrientOptions = {}): Promise<OrientationResult> {
+  const theta = ((options.overhangAngle ?? 45) * Math.PI) / 180;
+  const sinTheta = Math.sin(theta);
+  const layer = options.layerHeight ?? 0.2;
+  const printers = options.printers ?? [];
+  const weights = { ...DEFAULT_WEIGHTS, ...options.weights };
+  const refineCount = Math.max(1, options.refineCount ?? 16);
+  const gridCells = options.gridCells ?? 192;
+  const minCell = options.minCellSize ?? 0.25;
+  const keep = Math.max(1, options.keep ?? 5);
+  // Within half a layer of the bed a facet prints as the first layer.
+  const bedEps = layer / 2;
+  const tick = makeTicker(options.signal, options.onProgress);
+
+  const f = facetData(mesh);
+  const b = boundsOf(mesh.vertices);
+  const scale: ScoreScale = {
+    volume: Math.abs(indexedVolume(mesh)),
+    surfaceArea: f.totalArea,
+    diameter: Math.hypot(b.max[0] - b.min[0], b.max[1] - b.min[1], b.max[2] - b.min[2]),
+    bestBedContact: 0,
+  };
+  const dirs = candidateDirections(f, options.sphereDirections ?? 256, options.flatRegions ?? 24);
+
+  // Stage 1: fast measures for every direction.
+  const evaluated: Evaluated[] = [];
+  const extreme = new Set<number>();
+  for (let k = 0; k < dirs.length; k++) {
+    const cand = dirs[k]!;
+    const rot = rotationForDown(cand.dir);
+    const quick = quickMetrics(f, mesh.vertices, rot.matrix, sinTheta, bedEps);
+    extreme.add(quick.lowVertex);
+    extreme.add(quick.highVertex);
+    if (quick.bedContactArea > scale.bestBedContact) scale.bestBedContact = quick.bedContactArea;
+    evaluated.push({ cand, rot, quick, proxyScore: 0 });
+    if (k % 8 === 7) await tick((0.5 * (k + 1)) / dirs.length);
+  }
+  // The lowest and highest vertices over all directions approximate the convex hull's vertices,
+  // which is all a footprint depends on; good enough to rank before the exact check.
+  const hullish = Uint32Array.from(extreme);
+  for (const e of evaluated) {
+    const { footprint } = bestSpin(mesh.vertices, hullish, e.rot.matrix);
+    const fits = fitPrinters(footprint, e.quick.height, printers);
+    e.proxyScore = orientationScore(
+      { ...e.quick, supportVolume: e.quick.supportProxy, fitsAny: printers.length ? fits.some((x) => x.fits) : null },
+      scale,
+      weights,
+    );
+  }
+  evaluated.sort((p, q) => p.proxyScore - q.proxyScore);
+  const chosen = pickDistinct(evaluated.map((e) => ({ ...e, down: e.cand.dir })), refineCount);
+  const original = evaluated.find((e) => e.cand.source === "original")!;
+  if (!chosen.some((c) => c.cand.source === "original")) chosen.push({ ...original, down: original.cand.dir });
+
+  // Stage 2: exact footprint after the best turn, and the height-field support estimate.
+  const refined: OrientationCandidate[] = [];
+  for (let k = 0; k < chosen.length; k++) {
+    const e = chosen[k]!;
+    const spin = bestSpin(mesh.vertices, hullish, e.rot.matrix).spin;
+    const rot = spin === 0 ? e.rot : rotationForDown(e.cand.dir, spin);
+    const footprint = footprintOf(mesh.vertices, rot.matrix);
+    const rotated = rotatePoints(mesh.vertices, rot.matrix);
+    const cellSize = Math.max(minCell, Math.max(footprint[0], footprint[1]) / gridCells);
+    const hf = supportVolumeHeightField(rotated, mesh.indices, { cellSize, sinTheta });
+    const fits = fitPrinters(footprint, e.quick.height, printers);
+    const fitsAny = fits.some((x) => x.fits);
+    const cand: OrientationCandidate = {
+      down: e.cand.dir,
+      source: e.cand.source,
+      rotation: rot,
+      overhangArea: e.quick.overhangArea,
+      supportVolume: hf.volume,
+      height: e.quick.height,
+      layers: Math.ceil(e.quick.height / layer - 1e-9),
+      bedContactArea: e.quick.bedContactArea,
+      footprint,
+      fits,
+      fitsAny,
+      score: 0,
+    };
+    cand.score = orientationScore({ ...cand, fitsAny: printers.length ? fitsAny : null }, scale, weights);
+    refined.push(cand);
+    await tick(0.5 + (0.5 * (k + 1)) / chosen.length);
+  }
+  refined.sort((p, q) => p.score - q.score);
+  const originalCandidate = refined.find((c) => c.source === "original")!;
+  options.onProgress?.(1);
+  return {
+    candidates: pickDistinct(refined, keep),
+    original: originalCandidate,
+    directionsEvaluated: dirs.length,
+    volume: scale.volume,
+    surfaceArea: scale.surfaceArea,
+  };
+}
