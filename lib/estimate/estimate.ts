@@ -94,7 +94,8 @@ export interface PlatePart {
 export interface PlatePartEstimate {
   volumes: VolumeBreakdown;
   quantity: number;
-  /** Raw grams and minutes of all copies together, without start-up. */
+  /** Raw grams and minutes of all copies together, without start-up (and, when the layer
+   * overhead is "shared", without layer overhead, which then belongs to the plate). */
   rawGrams: number;
   rawPrintMinutes: number;
 }
