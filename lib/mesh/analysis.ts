@@ -1,0 +1,166 @@
+import { footprint, type Footprint } from "./footprint";
+import { resolveOptions, type AnalysisOptions, type ResolvedOptions } from "./options";
+import { findNonFinite, finishPass, passRange, PassState, type PassResult } from "./single-pass";
+import { sniffStl } from "./stl-read";
+import { LITTLE_ENDIAN_HOST, PAIR_STRIDE, stlRecordViews } from "./stl-views";
+import { topology, type Topology } from "./topology";
+import type { IndexedMesh, TriangleSoup, Vec3 } from "./types";
+import { defaultWeldTolerance, Welder } from "./weld";
+import { MeshReadError } from "./errors";
+import { DEFAULT_MAX_TRIANGLES, readMesh, stlScale, type MeshFormat, type ReadOptions } from "./read";
+import { isZip } from "./zip";
+
+export interface MeshAnalysis extends PassResult {
+  up: Vec3;
+  overhangDeg: number;
+  /** Welded vertex count. */
+  vertices: number;
+  topology: Topology;
+  /** False when the mesh is open or inconsistently wound: the signed volume is then meaningless. */
+  volumeReliable: boolean;
+  footprint: Footprint;
+}
+
+/** A strided run of triangles: 9 floats at base + k·stride, triangle index tri0 + k·triStep. */
+export interface Segment { f: Float32Array; base: number; stride: number; count: number; tri0: number; triStep: number }
+
+export function soupSegments(p: Float32Array): Segment[] {
+  return [{ f: p, base: 0, stride: 9, count: Math.floor(p.length / 9), tri0: 0, triStep: 1 }];
+}
+
+/** Binary STL records in place: even records from one aligned view, odd ones from the shifted copy. */
+export function stlSegments(bytes: Uint8Array, count: number): Segment[] {
+  const v = stlRecordViews(bytes, count);
+  return [
+    { f: v.even, base: v.evenBase, stride: PAIR_STRIDE, count: (count + 1) >>> 1, tri0: 0, triStep: 2 },
+    { f: v.odd, base: v.oddBase, stride: PAIR_STRIDE, count: count >>> 1, tri0: 1, triStep: 2 },
+  ];
+}
+
+/** Split segments into pieces of at most `max` triangles (for progress and cancellation). */
+export function chunkSegments(segs: Segment[], max: number): Segment[] {
+  const out: Segment[] = [];
+  for (const s of segs) {
+    for (let k = 0; k < s.count; k += max) {
+      out.push({ ...s, base: s.base + k * s.stride, count: Math.min(max, s.count - k), tri0: s.tri0 + k * s.triStep });
+    }
+  }
+  return out;
+}
+
+export type Phase = "analyse" | "weld" | "topology" | "footprint";
+export interface Step { phase: Phase; fraction: number }
+
+function locateNonFinite(segs: Segment[]): number {
+  let best = -1;
+  for (const s of segs) {
+    const t = findNonFinite(s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
+    if (t >= 0 && (best < 0 || t < best)) best = t;
+  }
+  return best;
+}
+
+export function* passSteps(segs: Segment[], triangles: number, o: ResolvedOptions): Generator<Step, PassResult> {
+  const st = new PassState(o, triangles);
+  let done = 0;
+  for (const s of segs) {
+    passRange(st, s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
+    done += s.count;
+    yield { phase: "analyse", fraction: triangles ? done / triangles : 1 };
+  }
+  return finishPass(st, () => locateNonFinite(segs));
+}
+
+/** Full analysis as a sequence of steps: single pass, weld, edge census, footprint. */
+export function* analysisSteps(segs: Segment[], triangles: number, opts: AnalysisOptions = {}): Generator<Step, { analysis: MeshAnalysis; mesh: IndexedMesh }> {
+  const o = resolveOptions(opts);
+  if (triangles === 0) throw new MeshReadError("NO_TRIANGLES", "the mesh has no triangles");
+  const pass: PassResult = yield* passSteps(segs, triangles, o);
+  const tol = o.weldTolerance ?? defaultWeldTolerance(pass.bbox.min, pass.bbox.max);
+  const w = new Welder(triangles, pass.bbox.min, tol);
+  let done = 0;
+  for (const s of segs) {
+    w.addRange(s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
+    done += s.count;
+    yield { phase: "weld", fraction: done / triangles };
+  }
+  const mesh = w.result();
+  const topo = topology(mesh);
+  yield { phase: "topology", fraction: 1 };
+  const fp = footprint(mesh.vertices, o.up);
+  yield { phase: "footprint", fraction: 1 };
+  const analysis: MeshAnalysis = {
+    ...pass,
+    up: o.up,
+    overhangDeg: opts.overhangDeg ?? 45,
+    vertices: mesh.vertices.length / 3,
+    topology: topo,
+    volumeReliable: topo.watertight,
+    footprint: fp,
+  };
+  return { analysis, mesh };
+}
+
+export function runSteps<T>(g: Generator<Step, T>): T {
+  for (;;) {
+    const r = g.next();
+    if (r.done) return r.value;
+  }
+}
+
+/** Single pass over a soup: bbox, volume, area, overhang and bed contact; no welding. */
+export function passSoup(soup: TriangleSoup, opts?: AnalysisOptions): PassResult {
+  const p = soup.positions;
+  return runSteps(passSteps(soupSegments(p), Math.floor(p.length / 9), resolveOptions(opts)));
+}
+
+/** Full analysis of a soup (welds it; the welded mesh is returned with it). */
+export function analyzeSoup(soup: TriangleSoup, opts?: AnalysisOptions): MeshAnalysis {
+  return analyzeSoupWithMesh(soup, opts).analysis;
+}
+
+export function analyzeSoupWithMesh(soup: TriangleSoup, opts?: AnalysisOptions): { analysis: MeshAnalysis; mesh: IndexedMesh } {
+  const p = soup.positions;
+  return runSteps(analysisSteps(soupSegments(p), Math.floor(p.length / 9), opts));
+}
+
+function binaryStlOrNull(bytes: Uint8Array, opts: ReadOptions = {}): number | null {
+  if (bytes.length === 0 || isZip(bytes)) return null;
+  const k = sniffStl(bytes);
+  if (k.kind !== "binary" || !LITTLE_ENDIAN_HOST) return null;
+  if (k.count === 0) throw new MeshReadError("NO_TRIANGLES", "the binary STL declares 0 triangles");
+  const max = opts.maxTriangles ?? DEFAULT_MAX_TRIANGLES;
+  if (k.count > max) throw new MeshReadError("TOO_LARGE", `binary STL has ${k.count} triangles, over the ${max} limit`);
+  return k.count;
+}
+
+/**
+ * Single-pass analysis straight from mesh bytes: binary STL records are read in place through two
+ * aligned Float32Array views, with no intermediate positions array. Other inputs (ASCII STL, 3MF,
+ * inches, big-endian hosts) are read into a soup first.
+ */
+export function analyzeStlFast(bytes: Uint8Array, opts: AnalysisOptions & ReadOptions = {}): PassResult {
+  const count = stlScale(opts.units) !== 1 || isZip(bytes) ? null : binaryStlOrNull(bytes, opts);
+  if (count !== null) return runSteps(passSteps(stlSegments(bytes, count), count, resolveOptions(opts)));
+  return passSoup(readMesh(bytes, opts).soup, opts);
+}
+
+/** Full analysis straight from binary STL bytes (weld and edge census included), or null if not binary STL. */
+export function analyzeStlBinaryFull(bytes: Uint8Array, opts: AnalysisOptions & ReadOptions = {}): MeshAnalysis | null {
+  if (stlScale(opts.units) !== 1) return null;
+  const count = binaryStlOrNull(bytes, opts);
+  if (count === null) return null;
+  return runSteps(analysisSteps(stlSegments(bytes, count), count, opts)).analysis;
+}
+
+/** Read and fully analyse any supported bytes; binary STL is analysed in place. */
+export function analyzeBytes(bytes: Uint8Array, opts: AnalysisOptions & ReadOptions = {}): { format: MeshFormat; analysis: MeshAnalysis; warnings: string[] } {
+  const direct = analyzeStlBinaryFull(bytes, opts);
+  if (direct) {
+    const k = sniffStl(bytes);
+    const trailing = k.kind === "binary" ? k.trailingBytes : 0;
+    return { format: "stl-binary", analysis: direct, warnings: trailing ? [`${trailing} bytes after the last triangle record were ignored`] : [] };
+  }
+  const r = readMesh(bytes, opts);
+  return { format: r.format, analysis: analyzeSoup(r.soup, opts), warnings: r.warnings };
+}

@@ -1,0 +1,22 @@
+export * from "./types";
+export { MeshReadError, isMeshReadError, type MeshReadErrorCode } from "./errors";
+export { readMesh, stlScale, type MeshFormat, type ReadOptions, type ReadResult, type StlUnits } from "./read";
+export {
+  analyzeBytes,
+  analyzeSoup,
+  analyzeSoupWithMesh,
+  analyzeStlBinaryFull,
+  analyzeStlFast,
+  passSoup,
+  type MeshAnalysis,
+} from "./analysis";
+export type { AnalysisOptions } from "./options";
+export type { PassResult } from "./single-pass";
+export { weld } from "./weld";
+export { topology, type Topology } from "./topology";
+export { footprint, convexHull2d, polygonArea, type Footprint } from "./footprint";
+export { writeStl } from "./stl-write";
+export { write3mf, type ThreeMfObject } from "./threemf-write";
+export { applyAffine, composeAffine, IDENTITY, type Affine } from "./affine";
+export { UNIT_MM, type ThreeMfPart } from "./threemf-read";
+export { analysisToJson, type AnalysisJson, type ErrorJson } from "./json";
