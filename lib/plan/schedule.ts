@@ -1,0 +1,239 @@
+import type { AttendedCalendar } from "@/lib/calendar/attended-hours";
+import type { PackedPlate } from "./pack";
+import type { Printer } from "./schema";
+
+export type Timed = { plate: PackedPlate; printer: string; start: number; end: number; changeover: boolean };
+export type ScheduleContext = {
+  printers: readonly Printer[];
+  calendar: AttendedCalendar;
+  nowMs: number;
+  marginMm: number;
+};
+
+const MIN = 60_000;
+const EPS = 1e-6;
+
+/** May this plate's layout go on this printer? */
+export function plateFits(plate: PackedPlate, p: Printer, marginMm: number): boolean {
+  const nozzle = plate.items[0]!.inst.part.nozzle;
+  return (
+    p.materials.includes(plate.material) &&
+    Math.abs(p.nozzle - nozzle) < 1e-9 &&
+    plate.maxHeight <= p.height + 1e-9 &&
+    plate.extent[0] <= p.bed[0] - marginMm + 1e-6 &&
+    plate.extent[1] <= p.bed[1] - marginMm + 1e-6
+  );
+}
+
+/** Plate time on a printer: changeover (if the spool differs) + start-up + the parts' minutes. */
+export function plateMinutes(plate: PackedPlate, p: Printer, changeover: boolean): number {
+  return (changeover ? p.changeover_minutes : 0) + p.startup_minutes + plate.partMinutes;
+}
+
+/**
+ * Earliest start at or after t that is attended and keeps [start, start + minutes) clear of the
+ * printer's unavailable windows. null when no such time exists within the calendar's reach.
+ */
+export function earliestStart(ctx: ScheduleContext, p: Printer, t: number, minutes: number): number | null {
+  const windows = p.unavailable.map((w) => [Date.parse(w.from), Date.parse(w.to)] as const);
+  let at = Math.max(t, ctx.nowMs);
+  for (let guard = 0; guard < 10_000; guard++) {
+    const open = memo(ctx, "n", at, () => ctx.calendar.nextOpening(at));
+    if (open === null) return null;
+    const end = open + minutes * MIN;
+    const clash = windows.find(([from, to]) => open < to && from < end);
+    if (!clash) return open;
+    at = clash[1];
+  }
+  return null;
+}
+
+/** When can the next plate start after one ends at e? Someone must take it off first. */
+function readyAfter(ctx: ScheduleContext, e: number): number {
+  const open = memo(ctx, "o", e, () => (ctx.calendar.isOpen(e) ? 1 : 0));
+  return open ? e : (memo(ctx, "n", e, () => ctx.calendar.nextOpening(e)) ?? Number.POSITIVE_INFINITY);
+}
+
+// The local search re-times the same instants many times; calendar answers are pure, so keep them.
+const caches = new WeakMap<AttendedCalendar, Map<string, number | null>>();
+function memo(ctx: ScheduleContext, kind: string, t: number, f: () => number | null): number | null {
+  let c = caches.get(ctx.calendar);
+  if (!c) caches.set(ctx.calendar, (c = new Map()));
+  const key = kind + t;
+  if (c.has(key)) return c.get(key)!;
+  const v = f();
+  if (c.size > 200_000) c.clear();
+  c.set(key, v);
+  return v;
+}
+
+type Lane = { printer: Printer; plates: PackedPlate[]; timed: Timed[]; lateness: number; finish: number; ok: boolean };
+
+function spoolDiffers(loaded: Printer["loaded"], plate: PackedPlate): boolean {
+  return !loaded || loaded.material !== plate.material || loaded.color !== plate.color;
+}
+
+/** Time one printer's plates in rank order; sets lateness (minutes) and finish. */
+function timeLane(ctx: ScheduleContext, lane: Lane): void {
+  lane.plates.sort((a, b) => a.rank - b.rank);
+  lane.timed = [];
+  lane.lateness = 0;
+  lane.finish = ctx.nowMs;
+  lane.ok = true;
+  let ready = ctx.nowMs;
+  let loaded = lane.printer.loaded;
+  for (const plate of lane.plates) {
+    const change = spoolDiffers(loaded, plate) && lane.printer.changeover_minutes > 0;
+    const minutes = plateMinutes(plate, lane.printer, change);
+    const start = earliestStart(ctx, lane.printer, ready, minutes);
+    if (start === null) {
+      lane.ok = false;
+      return;
+    }
+    const end = start + minutes * MIN;
+    lane.timed.push({ plate, printer: lane.printer.id, start, end, changeover: change });
+    lane.lateness += plateLateness(plate, end);
+    lane.finish = end;
+    ready = readyAfter(ctx, end);
+    loaded = { material: plate.material, color: plate.color };
+  }
+}
+
+export function plateLateness(plate: PackedPlate, end: number): number {
+  let sum = 0;
+  for (const it of plate.items) {
+    if (it.inst.part.due !== null) sum += Math.max(0, (end - Date.parse(it.inst.part.due)) / MIN);
+  }
+  return sum;
+}
+
+type Score = [number, number, number];
+function score(lanes: readonly Lane[], nowMs: number): Score {
+  let late = 0;
+  let makespan = 0;
+  let sq = 0;
+  for (const l of lanes) {
+    if (!l.ok) return [Infinity, Infinity, Infinity];
+    late += l.lateness;
+    makespan = Math.max(makespan, l.finish);
+    // Sum of squared finishes: a tie-breaker that rewards evening out the printers.
+    sq += ((l.finish - nowMs) / MIN) ** 2;
+  }
+  return [late, makespan, sq];
+}
+const better = (a: Score, b: Score) =>
+  a[0] < b[0] - EPS || (Math.abs(a[0] - b[0]) <= EPS && (a[1] < b[1] - EPS || (Math.abs(a[1] - b[1]) <= EPS && a[2] < b[2] - EPS)));
+
+/**
+ * Assign plates to printers (README.md, "Scheduling"): in rank order, each plate goes to the
+ * printer where it would finish first (a loaded matching spool saves the changeover, so such a
+ * printer wins ties and usually wins outright). Then a local search moves single plates and swaps
+ * pairs between printers while that lowers total lateness, then the finish of the last plate.
+ * Each printer always runs its plates in rank order, so the fair-share order holds per printer.
+ */
+export function schedulePlates(plates: readonly PackedPlate[], ctx: ScheduleContext, maxPasses = 300): { timed: Timed[]; unscheduled: PackedPlate[] } {
+  const lanes: Lane[] = ctx.printers.map((printer) => ({ printer, plates: [], timed: [], lateness: 0, finish: ctx.nowMs, ok: true }));
+  const fits = new Map<PackedPlate, Lane[]>();
+  const unscheduled: PackedPlate[] = [];
+  const ordered = [...plates].sort((a, b) => a.rank - b.rank);
+  for (const plate of ordered) {
+    const options = lanes.filter((l) => plateFits(plate, l.printer, ctx.marginMm));
+    fits.set(plate, options);
+    let best: { lane: Lane; end: number; change: boolean } | null = null;
+    for (const lane of options) {
+      const last = lane.timed[lane.timed.length - 1];
+      const loaded = last ? { material: last.plate.material, color: last.plate.color } : lane.printer.loaded;
+      const change = spoolDiffers(loaded, plate) && lane.printer.changeover_minutes > 0;
+      const minutes = plateMinutes(plate, lane.printer, change);
+      const start = earliestStart(ctx, lane.printer, last ? readyAfter(ctx, last.end) : ctx.nowMs, minutes);
+      if (start === null) continue;
+      const end = start + minutes * MIN;
+      if (!best || end < best.end || (end === best.end && !change && best.change)) best = { lane, end, change };
+    }
+    if (!best) {
+      unscheduled.push(plate);
+      continue;
+    }
+    best.lane.plates.push(plate);
+    timeLane(ctx, best.lane);
+  }
+  improve(lanes, fits, ctx, maxPasses);
+  return { timed: lanes.flatMap((l) => l.timed), unscheduled };
+}
+
+function improve(lanes: Lane[], fits: Map<PackedPlate, Lane[]>, ctx: ScheduleContext, maxPasses: number): void {
+  const laneOf = new Map<PackedPlate, Lane>();
+  for (const l of lanes) for (const p of l.plates) laneOf.set(p, l);
+  let current = score(lanes, ctx.nowMs);
+  // A budget on trial re-timings keeps large queues fast; small ones finish well within it.
+  let budget = 6_000;
+  const trial = (a: Lane, b: Lane, mutate: () => void, undo: () => void): boolean => {
+    budget--;
+    mutate();
+    timeLane(ctx, a);
+    timeLane(ctx, b);
+    const s = score(lanes, ctx.nowMs);
+    if (better(s, current)) {
+      current = s;
+      return true;
+    }
+    undo();
+    timeLane(ctx, a);
+    timeLane(ctx, b);
+    return false;
+  };
+  for (let pass = 0; pass < maxPasses && budget > 0; pass++) {
+    let improved = false;
+    const critical = lanes.reduce((m, l) => (l.finish > m.finish ? l : m), lanes[0]!);
+    // Plates worth moving: those on the printer that finishes last, and any plate that is late.
+    const movable = lanes.flatMap((l) => l.timed.filter((t) => l === critical || plateLateness(t.plate, t.end) > 0).map((t) => t.plate));
+    const length = (p: PackedPlate) => (p.partMinutes + laneOf.get(p)!.printer.startup_minutes) * MIN;
+    const makespan = critical.finish;
+    for (const plate of movable) {
+      const from = laneOf.get(plate)!;
+      const late = plateLateness(plate, from.timed.find((t) => t.plate === plate)!.end) > 0;
+      for (const to of fits.get(plate)!) {
+        if (to === from || budget <= 0) continue;
+        // Without lateness at stake, only a move that could shorten the last printer is worth timing.
+        if (!late && to.finish + length(plate) >= makespan && !to.plates.some((o) => length(o) < length(plate))) continue;
+        const moved = trial(
+          from,
+          to,
+          () => ((from.plates = from.plates.filter((p) => p !== plate)), to.plates.push(plate)),
+          () => ((to.plates = to.plates.filter((p) => p !== plate)), from.plates.push(plate)),
+        );
+        if (moved) {
+          laneOf.set(plate, to);
+          improved = true;
+          break;
+        }
+        let swapped = false;
+        for (const other of [...to.plates]) {
+          if (budget <= 0) break;
+          if (!fits.get(other)!.includes(from)) continue;
+          if (!late && to.finish + length(plate) - length(other) >= makespan) continue;
+          const swap = () => {
+            from.plates = from.plates.filter((p) => p !== plate).concat(other);
+            to.plates = to.plates.filter((p) => p !== other).concat(plate);
+          };
+          const unswap = () => {
+            from.plates = from.plates.filter((p) => p !== other).concat(plate);
+            to.plates = to.plates.filter((p) => p !== plate).concat(other);
+          };
+          if (trial(from, to, swap, unswap)) {
+            laneOf.set(plate, to);
+            laneOf.set(other, from);
+            swapped = true;
+            break;
+          }
+        }
+        if (swapped) {
+          improved = true;
+          break;
+        }
+      }
+      if (improved) break;
+    }
+    if (!improved) return;
+  }
+}
