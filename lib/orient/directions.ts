@@ -35,24 +35,41 @@ export const AXIS_DIRECTIONS: readonly Vec3[] = [
  */
 export function flatRegionDirections(f: FacetData, maxCount: number): { dir: Vec3; area: number }[] {
   const q = 100; // 1/q rad ≈ 0.57°
-  const groups = new Map<number, { x: number; y: number; z: number; area: number }>();
+  // Open-addressing hash on the quantised normal: a smooth part has a group per facet, where a
+  // Map of objects would cost more than the whole fast stage.
+  let size = 1;
+  while (size < f.count * 2) size <<= 1;
+  const mask = size - 1;
+  const keys = new Int32Array(size).fill(-1);
+  const acc = new Float64Array(size * 4); // Σ n·a (3), Σ a
   for (let t = 0; t < f.count; t++) {
     const a = f.areas[t]!;
     if (!(a > 0)) continue;
     const nx = f.normals[3 * t]!, ny = f.normals[3 * t + 1]!, nz = f.normals[3 * t + 2]!;
     const key = (Math.round(nx * q) + 128) * 65536 + (Math.round(ny * q) + 128) * 256 + (Math.round(nz * q) + 128);
-    const g = groups.get(key);
-    if (g) {
-      g.x += nx * a;
-      g.y += ny * a;
-      g.z += nz * a;
-      g.area += a;
-    } else groups.set(key, { x: nx * a, y: ny * a, z: nz * a, area: a });
+    let h = Math.imul(key, 0x9e3779b1) >>> 0 & mask;
+    while (keys[h] !== -1 && keys[h] !== key) h = (h + 1) & mask;
+    keys[h] = key;
+    acc[4 * h] = acc[4 * h]! + nx * a;
+    acc[4 * h + 1] = acc[4 * h + 1]! + ny * a;
+    acc[4 * h + 2] = acc[4 * h + 2]! + nz * a;
+    acc[4 * h + 3] = acc[4 * h + 3]! + a;
   }
-  const list = [...groups.values()].sort((p, r) => r.area - p.area).slice(0, maxCount);
-  return list.map((g) => {
-    const l = Math.hypot(g.x, g.y, g.z);
-    return { dir: [g.x / l, g.y / l, g.z / l] as Vec3, area: g.area };
+  // Keep the maxCount largest groups (insertion into a short sorted list).
+  const top: number[] = [];
+  for (let h = 0; h < size; h++) {
+    if (keys[h] === -1) continue;
+    const a = acc[4 * h + 3]!;
+    if (top.length === maxCount && a <= acc[4 * top[top.length - 1]! + 3]!) continue;
+    let k = top.length;
+    while (k > 0 && acc[4 * top[k - 1]! + 3]! < a) k--;
+    top.splice(k, 0, h);
+    if (top.length > maxCount) top.pop();
+  }
+  return top.map((h) => {
+    const x = acc[4 * h]!, y = acc[4 * h + 1]!, z = acc[4 * h + 2]!;
+    const l = Math.hypot(x, y, z);
+    return { dir: [x / l, y / l, z / l] as Vec3, area: acc[4 * h + 3]! };
   });
 }
 

@@ -29,6 +29,23 @@ const KIND_UP = 0;
 const KIND_DOWN = 1;
 const KIND_OVERHANG = 2;
 
+/**
+ * Crossing buffers reused between calls: the search runs the estimate many times in a row, and
+ * fresh megabyte arrays each time cost more in garbage collection than the estimate itself.
+ */
+const scratch = { cells: new Int32Array(0), zs: new Float32Array(0), kinds: new Uint8Array(0) };
+
+function ensure(size: number, keep = 0): void {
+  if (scratch.cells.length >= size) return;
+  const cells = new Int32Array(size), zs = new Float32Array(size), kinds = new Uint8Array(size);
+  cells.set(scratch.cells.subarray(0, keep));
+  zs.set(scratch.zs.subarray(0, keep));
+  kinds.set(scratch.kinds.subarray(0, keep));
+  scratch.cells = cells;
+  scratch.zs = zs;
+  scratch.kinds = kinds;
+}
+
 /** Cells on the inside of edge (ax,ay)→(bx,by) for a counter-clockwise triangle, top-left rule. */
 function topLeft(dx: number, dy: number): boolean {
   return dy < 0 || (dy === 0 && dx < 0);
@@ -53,17 +70,15 @@ export function supportVolumeHeightField(
   const ny = Math.max(1, Math.ceil((maxY - minY) / c));
   const inv = 1 / c;
 
-  let cap = Math.max(1024, nx * ny * 4);
-  let cells = new Int32Array(cap);
-  let zs = new Float32Array(cap);
-  let kinds = new Uint8Array(cap);
+  ensure(Math.max(1024, nx * ny * 4));
+  let { cells, zs, kinds } = scratch;
+  let cap = cells.length;
   let n = 0;
   const push = (cell: number, z: number, kind: number) => {
     if (n === cap) {
-      cap *= 2;
-      const c2 = new Int32Array(cap); c2.set(cells); cells = c2;
-      const z2 = new Float32Array(cap); z2.set(zs); zs = z2;
-      const k2 = new Uint8Array(cap); k2.set(kinds); kinds = k2;
+      ensure(cap * 2, n);
+      ({ cells, zs, kinds } = scratch);
+      cap = cells.length;
     }
     cells[n] = cell;
     zs[n] = z;
@@ -72,34 +87,36 @@ export function supportVolumeHeightField(
   };
 
   const tris = Math.floor(indices.length / 3);
+  const sinTheta = opts.sinTheta;
   for (let t = 0; t < tris; t++) {
-    const ia = indices[3 * t]! * 3;
-    let ib = indices[3 * t + 1]! * 3;
-    let ic = indices[3 * t + 2]! * 3;
+    const ia = indices[3 * t]! * 3, ib = indices[3 * t + 1]! * 3, ic = indices[3 * t + 2]! * 3;
     // Grid units, origin at the bounding-box corner; cell centres sit at k + 0.5.
-    const ax = (vertices[ia]! - minX) * inv, ay = (vertices[ia + 1]! - minY) * inv, az = vertices[ia + 2]!;
-    let bx = (vertices[ib]! - minX) * inv, by = (vertices[ib + 1]! - minY) * inv, bz = vertices[ib + 2]!;
-    let cx = (vertices[ic]! - minX) * inv, cy = (vertices[ic + 1]! - minY) * inv, cz = vertices[ic + 2]!;
-    let area2 = (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
-    if (Math.abs(area2) < 1e-12) continue; // vertical facet: no crossing
-    // Facing from the 3D normal's z sign and steepness, before any reordering.
-    const ux = vertices[ib]! - vertices[ia]!, uy = vertices[ib + 1]! - vertices[ia + 1]!, uz = bz - az;
-    const wx = vertices[ic]! - vertices[ia]!, wy = vertices[ic + 1]! - vertices[ia + 1]!, wz = cz - az;
-    const nz = ux * wy - uy * wx;
-    const nlen = Math.hypot(uy * wz - uz * wy, uz * wx - ux * wz, nz);
-    const kind = nz > 0 ? KIND_UP : -nz > opts.sinTheta * nlen ? KIND_OVERHANG : KIND_DOWN;
+    const ax = (vertices[ia]! - minX) * inv, ay = (vertices[ia + 1]! - minY) * inv;
+    const px1 = (vertices[ib]! - minX) * inv, py1 = (vertices[ib + 1]! - minY) * inv;
+    const px2 = (vertices[ic]! - minX) * inv, py2 = (vertices[ic + 1]! - minY) * inv;
+    // Most small facets cover no cell centre: reject them before any other work.
+    const i0 = Math.max(0, Math.ceil((ax < px1 ? (ax < px2 ? ax : px2) : px1 < px2 ? px1 : px2) - 0.5));
+    const i1 = Math.min(nx - 1, Math.floor((ax > px1 ? (ax > px2 ? ax : px2) : px1 > px2 ? px1 : px2) - 0.5));
+    if (i0 > i1) continue;
+    const j0 = Math.max(0, Math.ceil((ay < py1 ? (ay < py2 ? ay : py2) : py1 < py2 ? py1 : py2) - 0.5));
+    const j1 = Math.min(ny - 1, Math.floor((ay > py1 ? (ay > py2 ? ay : py2) : py1 > py2 ? py1 : py2) - 0.5));
+    if (j0 > j1) continue;
+    let area2 = (px1 - ax) * (py2 - ay) - (py1 - ay) * (px2 - ax);
+    if (area2 > -1e-12 && area2 < 1e-12) continue; // vertical facet: no crossing
+    const az = vertices[ia + 2]!, z1 = vertices[ib + 2]!, z2 = vertices[ic + 2]!;
+    // Facing and steepness from the 3D normal (in grid units for x, y: only ratios matter here).
+    const ux = px1 - ax, uy = py1 - ay, uz = (z1 - az) * inv;
+    const wx = px2 - ax, wy = py2 - ay, wz = (z2 - az) * inv;
+    const nx3 = uy * wz - uz * wy, ny3 = uz * wx - ux * wz, nz = ux * wy - uy * wx;
+    const nlen = Math.sqrt(nx3 * nx3 + ny3 * ny3 + nz * nz);
+    const kind = nz > 0 ? KIND_UP : -nz > sinTheta * nlen ? KIND_OVERHANG : KIND_DOWN;
+    // Counter-clockwise order in the plane for the edge tests.
+    let bx = px1, by = py1, bz = z1, cx = px2, cy = py2, cz = z2;
     if (area2 < 0) {
-      [ib, ic] = [ic, ib];
-      [bx, cx] = [cx, bx];
-      [by, cy] = [cy, by];
-      [bz, cz] = [cz, bz];
+      bx = px2; by = py2; bz = z2;
+      cx = px1; cy = py1; cz = z1;
       area2 = -area2;
     }
-    const i0 = Math.max(0, Math.ceil(Math.min(ax, bx, cx) - 0.5));
-    const i1 = Math.min(nx - 1, Math.floor(Math.max(ax, bx, cx) - 0.5));
-    const j0 = Math.max(0, Math.ceil(Math.min(ay, by, cy) - 0.5));
-    const j1 = Math.min(ny - 1, Math.floor(Math.max(ay, by, cy) - 0.5));
-    if (i0 > i1 || j0 > j1) continue;
     const tlAB = topLeft(bx - ax, by - ay), tlBC = topLeft(cx - bx, cy - by), tlCA = topLeft(ax - cx, ay - cy);
     const invA = 1 / area2;
     for (let j = j0; j <= j1; j++) {
