@@ -29,6 +29,11 @@ export type PackOptions = {
   spellCapMinutes: number | null;
   /** Shorten plates near the end of the queue so the last ones spread over all printers. */
   balanceTail: boolean;
+  /**
+   * Cap plate time at this share of the average printer load (1/3: at least about three plates
+   * per printer), so the work can be spread evenly; null = no cap.
+   */
+  loadShare: number | null;
 };
 
 type Rect = { width: number; height: number; x: number; y: number; rot: boolean; data: PartInstance };
@@ -52,6 +57,7 @@ export function packPlates(ranked: readonly PartInstance[], printers: readonly P
   }
   const load = new Map(printers.map((p) => [p.id, 0]));
   let remainingMinutes = ranked.reduce((s, x) => s + x.part.minutes, 0);
+  const shareCap = opt.loadShare === null ? Number.POSITIVE_INFINITY : (opt.loadShare * remainingMinutes) / printers.length;
   const plates: PackedPlate[] = [];
   for (let guard = 0; guard <= ranked.length; guard++) {
     // The group whose head is the most urgent.
@@ -71,7 +77,7 @@ export function packPlates(ranked: readonly PartInstance[], printers: readonly P
     const printer = [...candidates].sort(
       (a, b) => load.get(a.id)! - load.get(b.id)! || b.bed[0] * b.bed[1] - a.bed[0] * a.bed[1] || (a.id < b.id ? -1 : 1),
     )[0]!;
-    let cap = opt.spellCapMinutes ?? Number.POSITIVE_INFINITY;
+    let cap = Math.min(opt.spellCapMinutes ?? Number.POSITIVE_INFINITY, shareCap);
     if (opt.balanceTail) cap = Math.min(cap, remainingMinutes / printers.length);
     cap = Math.max(cap, printer.startup_minutes + head.part.minutes);
     const plate = fillPlate(group, printer, eligible, opt, cap);

@@ -7,7 +7,7 @@ import type { Plate, PlanInstance, PlanMetrics, PlanOutput, Printer, Unplaced } 
 
 const MIN = 60_000;
 
-export type PlanOptions = { balanceTail?: boolean; maxImprovements?: number };
+export type PlanOptions = { balanceTail?: boolean; loadShare?: number | null; maxImprovements?: number };
 
 export const UNATTENDED_CAUTION =
   "This plate is still printing at closing time and runs unattended. Unattended and overnight printing is a fire risk: " +
@@ -46,6 +46,7 @@ export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): Pla
     gapMm: inst.gap_mm,
     spellCapMinutes: alwaysOpen ? null : spell,
     balanceTail: options.balanceTail ?? false,
+    loadShare: options.loadShare === undefined ? 1 / 3 : options.loadShare,
   });
   const { timed, unscheduled } = schedulePlates(packed, { printers: inst.printers, calendar, nowMs, marginMm: inst.margin_mm }, options.maxImprovements);
   for (const plate of unscheduled) {
