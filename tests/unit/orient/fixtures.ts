@@ -44,3 +44,31 @@ export function union(w: Wasm, parts: Solid[]): Solid {
   for (const p of parts) p.delete();
   return u;
 }
+
+/** Lowest-z-first bounding box of a soup. */
+export function soupBounds(p: Float32Array): { min: number[]; max: number[] } {
+  const min = [Infinity, Infinity, Infinity], max = [-Infinity, -Infinity, -Infinity];
+  for (let i = 0; i < p.length; i += 3)
+    for (let k = 0; k < 3; k++) {
+      min[k] = Math.min(min[k]!, p[i + k]!);
+      max[k] = Math.max(max[k]!, p[i + k]!);
+    }
+  return { min, max };
+}
+
+/** A T standing upright: stem 10 × 10 × 30 under a bar 50 × 10 × 10, arms 20 mm each side. */
+export function tShape(w: Wasm): TriangleSoup {
+  return toSoup(union(w, [box(w, [20, 0, 0], [10, 10, 30]), box(w, [0, 0, 30], [50, 10, 10])]));
+}
+
+/** An L in the XZ plane, 10 deep in Y: a 40 × 10 foot along X and a 10 × 40 upright at x = 0. */
+export function lShape(w: Wasm): TriangleSoup {
+  return toSoup(union(w, [box(w, [0, 0, 0], [40, 10, 10]), box(w, [0, 0, 0], [10, 10, 40])]));
+}
+
+/** Right-triangle prism: legs 40 (X) and 20 (Z) in the XZ plane, 30 deep in Y. */
+export function wedge(w: Wasm): TriangleSoup {
+  const pts: [number, number, number][] = [];
+  for (const y of [0, 30]) pts.push([0, y, 0], [40, y, 0], [0, y, 20]);
+  return toSoup(w.Manifold.hull(pts));
+}
