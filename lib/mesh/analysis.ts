@@ -22,25 +22,48 @@ export interface MeshAnalysis extends PassResult {
 }
 
 /** A strided run of triangles: 9 floats at base + k·stride, triangle index tri0 + k·triStep. */
-export interface Segment { f: Float32Array; base: number; stride: number; count: number; tri0: number; triStep: number }
+export interface Segment {
+  f: Float32Array; base: number; stride: number; count: number; tri0: number; triStep: number;
+  /** Fill `f` before reading (a shared scratch buffer); such segments are never split. */
+  load?: () => void;
+}
 
 export function soupSegments(p: Float32Array): Segment[] {
   return [{ f: p, base: 0, stride: 9, count: Math.floor(p.length / 9), tri0: 0, triStep: 1 }];
 }
 
-/** Binary STL records in place: even records from one aligned view, odd ones from the shifted copy. */
+/** Record pairs per chunk: the odd records' shifted copy (~200 KB) stays in cache while read. */
+const PAIRS_PER_CHUNK = 2048;
+
+/**
+ * Binary STL records in place. Even records are read from one aligned Float32Array view of the
+ * file; odd records sit 2 bytes off, so each chunk of them is copied (one Uint8Array.set) into a
+ * small aligned scratch buffer just before it is read. Chunks alternate even/odd over the same
+ * stretch of the file, so the file is streamed through the cache once and no file-sized copy exists.
+ */
 export function stlSegments(bytes: Uint8Array, count: number): Segment[] {
-  const v = stlRecordViews(bytes, count);
-  return [
-    { f: v.even, base: v.evenBase, stride: PAIR_STRIDE, count: (count + 1) >>> 1, tri0: 0, triStep: 2 },
-    { f: v.odd, base: v.oddBase, stride: PAIR_STRIDE, count: count >>> 1, tri0: 1, triStep: 2 },
-  ];
+  const src = (bytes.byteOffset + 84) % 4 === 0 ? bytes : bytes.slice();
+  const even = stlRecordViews(src, 0).even;
+  const scratch = new Float32Array(PAIRS_PER_CHUNK * PAIR_STRIDE + 12);
+  const scratchBytes = new Uint8Array(scratch.buffer);
+  const nEven = (count + 1) >>> 1, nOdd = count >>> 1;
+  const out: Segment[] = [];
+  for (let k0 = 0; k0 < nEven; k0 += PAIRS_PER_CHUNK) {
+    out.push({ f: even, base: 3 + PAIR_STRIDE * k0, stride: PAIR_STRIDE, count: Math.min(PAIRS_PER_CHUNK, nEven - k0), tri0: 2 * k0, triStep: 2 });
+    const n = Math.min(PAIRS_PER_CHUNK, nOdd - k0);
+    if (n <= 0) continue;
+    const from = 134 + 100 * k0;
+    const to = Math.min(src.length, from + 100 * (n - 1) + 50);
+    out.push({ f: scratch, base: 3, stride: PAIR_STRIDE, count: n, tri0: 2 * k0 + 1, triStep: 2, load: () => scratchBytes.set(src.subarray(from, to)) });
+  }
+  return out;
 }
 
 /** Split segments into pieces of at most `max` triangles (for progress and cancellation). */
 export function chunkSegments(segs: Segment[], max: number): Segment[] {
   const out: Segment[] = [];
   for (const s of segs) {
+    if (s.load) { out.push(s); continue; }
     for (let k = 0; k < s.count; k += max) {
       out.push({ ...s, base: s.base + k * s.stride, count: Math.min(max, s.count - k), tri0: s.tri0 + k * s.triStep });
     }
@@ -54,6 +77,7 @@ export interface Step { phase: Phase; fraction: number }
 function locateNonFinite(segs: Segment[]): number {
   let best = -1;
   for (const s of segs) {
+    s.load?.();
     const t = findNonFinite(s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
     if (t >= 0 && (best < 0 || t < best)) best = t;
   }
@@ -64,6 +88,7 @@ export function* passSteps(segs: Segment[], triangles: number, o: ResolvedOption
   const st = new PassState(o, triangles);
   let done = 0;
   for (const s of segs) {
+    s.load?.();
     passRange(st, s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
     done += s.count;
     yield { phase: "analyse", fraction: triangles ? done / triangles : 1 };
@@ -80,6 +105,7 @@ export function* analysisSteps(segs: Segment[], triangles: number, opts: Analysi
   const w = new Welder(triangles, pass.bbox.min, tol);
   let done = 0;
   for (const s of segs) {
+    s.load?.();
     w.addRange(s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
     done += s.count;
     yield { phase: "weld", fraction: done / triangles };

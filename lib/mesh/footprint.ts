@@ -2,7 +2,7 @@ import type { Vec3 } from "./types";
 
 /**
  * Footprint on the bed: the vertices projected onto the plane normal to `up`, their convex hull
- * (Andrew's monotone chain, after an Akl–Toussaint octagon filter that drops points that cannot
+ * (Andrew's monotone chain, after an Akl–Toussaint style polygon filter that drops points that cannot
  * be on the hull) and its area (shoelace formula), plus the axis-aligned rectangle in the same
  * plane coordinates. For up = +Z the plane axes are X and Y.
  */
@@ -33,29 +33,35 @@ const cross = (ox: number, oy: number, ax: number, ay: number, bx: number, by: n
 export function convexHull2d(pts: Float64Array): Float64Array {
   const n = pts.length >>> 1;
   if (n === 0) return new Float64Array(0);
-  // Octagon of extreme points in the directions x, y, x+y, x−y: interior points are dropped.
-  const ext = new Int32Array(8);
-  const best = new Float64Array(8).fill(-Infinity);
+  // Polygon of the extreme points in K evenly spread directions (counter-clockwise order): points
+  // strictly inside it cannot be hull corners and are dropped before sorting.
+  const K = 32;
+  const dx = new Float64Array(K), dy = new Float64Array(K);
+  for (let k = 0; k < K; k++) { dx[k] = Math.cos((2 * Math.PI * k) / K); dy[k] = Math.sin((2 * Math.PI * k) / K); }
+  const ext = new Int32Array(K);
+  const best = new Float64Array(K).fill(-Infinity);
   for (let i = 0; i < n; i++) {
     const x = pts[2 * i]!, y = pts[2 * i + 1]!;
-    const d = [x, -x, y, -y, x + y, -x - y, x - y, y - x];
-    for (let k = 0; k < 8; k++) if (d[k]! > best[k]!) { best[k] = d[k]!; ext[k] = i; }
+    for (let k = 0; k < K; k++) {
+      const d = x * dx[k]! + y * dy[k]!;
+      if (d > best[k]!) { best[k] = d; ext[k] = i; }
+    }
   }
-  const order = [0, 4, 2, 7, 1, 5, 3, 6].map((k) => ext[k]!); // directions 0°, 45°, 90° … 315°: counter-clockwise
   const poly: number[] = [];
-  for (const i of order) {
+  for (let k = 0; k < K; k++) {
+    const i = ext[k]!;
     const x = pts[2 * i]!, y = pts[2 * i + 1]!;
     if (poly.length >= 2 && poly[poly.length - 2] === x && poly[poly.length - 1] === y) continue;
     poly.push(x, y);
   }
-  if (poly.length >= 4 && poly[0] === poly[poly.length - 2] && poly[1] === poly[poly.length - 1]) poly.length -= 2;
+  while (poly.length >= 4 && poly[0] === poly[poly.length - 2] && poly[1] === poly[poly.length - 1]) poly.length -= 2;
   const m = poly.length >>> 1;
   const keep: number[] = [];
   for (let i = 0; i < n; i++) {
     const x = pts[2 * i]!, y = pts[2 * i + 1]!;
     let inside = m >= 3;
     for (let k = 0; k < m && inside; k++) {
-      const k2 = (k + 1) % m;
+      const k2 = k + 1 === m ? 0 : k + 1;
       if (cross(poly[2 * k]!, poly[2 * k + 1]!, poly[2 * k2]!, poly[2 * k2 + 1]!, x, y) <= 0) inside = false;
     }
     if (!inside) keep.push(i);

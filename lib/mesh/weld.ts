@@ -54,15 +54,28 @@ export class Welder {
     }
   }
 
+  /**
+   * A small direct-mapped cache of recently seen cells sits in front of the big table: consecutive
+   * triangles share vertices, so most lookups hit it and never touch the big table (whose random
+   * accesses cost a cache miss each).
+   */
+  private readonly recent = new Int32Array(RECENT * 4).fill(-1);
+
   /** Weld `count` triangles read from f at base + k·stride (9 floats each); triangle = tri0 + k·triStep. */
   addRange(f: Float32Array, base: number, stride: number, count: number, tri0: number, triStep: number): void {
-    const inv = this.inv, ox = this.ox, oy = this.oy, oz = this.oz, idx = this.indices;
+    const inv = this.inv, ox = this.ox, oy = this.oy, oz = this.oz, idx = this.indices, rc = this.recent;
     let table = this.table, mask = this.mask, q = this.q, verts = this.vertices;
     for (let k = 0, p = base, t = tri0; k < count; k++, p += stride, t += triStep) {
       for (let c = 0; c < 3; c++) {
         const x = f[p + 3 * c]!, y = f[p + 3 * c + 1]!, z = f[p + 3 * c + 2]!;
         const qx = Math.round((x - ox) * inv), qy = Math.round((y - oy) * inv), qz = Math.round((z - oz) * inv);
-        let h = hash3(qx, qy, qz) & mask;
+        const hh = hash3(qx, qy, qz);
+        const r4 = ((hh >>> 17) & (RECENT - 1)) << 2;
+        if (rc[r4] === qx && rc[r4 + 1] === qy && rc[r4 + 2] === qz && rc[r4 + 3]! >= 0) {
+          idx[3 * t + c] = rc[r4 + 3]!;
+          continue;
+        }
+        let h = hh & mask;
         let id = table[h]!;
         while (id !== -1) {
           const r = 3 * id;
@@ -74,7 +87,7 @@ export class Welder {
           if (3 * this.count + 3 > q.length) {
             this.grow();
             table = this.table; mask = this.mask; q = this.q; verts = this.vertices;
-            h = hash3(qx, qy, qz) & mask;
+            h = hh & mask;
             while (table[h] !== -1) h = (h + 1) & mask;
           }
           id = this.count++;
@@ -83,6 +96,7 @@ export class Welder {
           q[r] = qx; q[r + 1] = qy; q[r + 2] = qz;
           verts[r] = x; verts[r + 1] = y; verts[r + 2] = z;
         }
+        rc[r4] = qx; rc[r4 + 1] = qy; rc[r4 + 2] = qz; rc[r4 + 3] = id;
         idx[3 * t + c] = id;
       }
     }
@@ -92,6 +106,8 @@ export class Welder {
     return { vertices: this.vertices.slice(0, this.count * 3), indices: this.indices };
   }
 }
+
+const RECENT = 1 << 15;
 
 function hash3(x: number, y: number, z: number): number {
   let h = Math.imul(x, 0x9e3779b1) ^ Math.imul(y, 0x85ebca77) ^ Math.imul(z, 0xc2b2ae3d);
