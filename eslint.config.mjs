@@ -1,15 +1,13 @@
-import { FlatCompat } from "@eslint/eslintrc";
-import { dirname } from "node:path";
-import { fileURLToPath } from "node:url";
-
-const compat = new FlatCompat({ baseDirectory: dirname(fileURLToPath(import.meta.url)) });
+import nextVitals from "eslint-config-next/core-web-vitals";
+import nextTs from "eslint-config-next/typescript";
 
 // The computation core stays framework-free: it runs in the browser worker, on the server and in CLIs.
 const pureCore = ["lib/mesh/**", "lib/plan/**", "lib/estimate/**", "lib/orient/**"];
 
 const config = [
-  { ignores: [".next/**", "node_modules/**", ".data/**", "drizzle/**", "test-results/**", "playwright-report/**", "next-env.d.ts"] },
-  ...compat.extends("next/core-web-vitals", "next/typescript"),
+  { ignores: [".next/**", "node_modules/**", ".data/**", "drizzle/**", "test-results/**", "playwright-report/**", "next-env.d.ts", "tests/e2e/.auth/**"] },
+  ...nextVitals,
+  ...nextTs,
   {
     files: pureCore,
     rules: {

@@ -1,0 +1,42 @@
+import { drizzle, type MySql2Database } from "drizzle-orm/mysql2";
+import mysql from "mysql2/promise";
+import * as schema from "./schema";
+import { env } from "@/lib/env";
+
+export type Db = MySql2Database<typeof schema>;
+
+// One pool per process, cached on globalThis so dev reloads do not open a new pool each time.
+const g = globalThis as unknown as { __pwPool?: mysql.Pool; __pwDb?: Db };
+
+export function pool(): mysql.Pool {
+  if (!g.__pwPool) {
+    const e = env();
+    g.__pwPool = mysql.createPool({
+      host: e.DB_HOST,
+      port: e.DB_PORT,
+      user: e.DB_USER,
+      password: e.DB_PASSWORD,
+      database: e.DB_NAME,
+      connectionLimit: e.DB_POOL_SIZE,
+      waitForConnections: true,
+      enableKeepAlive: true,
+      timezone: "Z",
+      dateStrings: false,
+    });
+  }
+  return g.__pwPool;
+}
+
+export function db(): Db {
+  if (!g.__pwDb) g.__pwDb = drizzle(pool(), { schema, mode: "default" });
+  return g.__pwDb;
+}
+
+export async function closeDb(): Promise<void> {
+  const p = g.__pwPool;
+  g.__pwPool = undefined;
+  g.__pwDb = undefined;
+  if (p) await p.end();
+}
+
+export { schema };

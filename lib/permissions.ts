@@ -1,0 +1,41 @@
+// Who may do what: one table, read by the server's checks and by the navigation.
+// Framework-free so the client can use it to hide what the server would refuse anyway.
+import type { Role } from "@/db/schema/users";
+
+export const permissions = {
+  "bench:use": ["member"],
+  "floor:view": ["operator", "admin"],
+  "printers:set-state": ["operator", "admin"],
+  "workshop:view": ["operator", "admin"],
+  "workshop:edit": ["admin"],
+  "people:manage": ["admin"],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Action = keyof typeof permissions;
+
+export function can(role: Role, action: Action): boolean {
+  return (permissions[action] as readonly Role[]).includes(role);
+}
+
+export const roleHome: Record<Role, string> = {
+  member: "/bench",
+  operator: "/floor",
+  admin: "/workshop",
+};
+
+export interface NavItem {
+  href: string;
+  label: string;
+}
+
+/** The navigation each role sees. Later pages add themselves here. */
+export const navByRole: Record<Role, NavItem[]> = {
+  member: [{ href: "/bench", label: "Bench" }],
+  operator: [{ href: "/floor", label: "Floor" }],
+  admin: [
+    { href: "/workshop", label: "Workshop settings" },
+    { href: "/floor", label: "Floor" },
+  ],
+};
+
+export const roleLabel: Record<Role, string> = { member: "Member", operator: "Operator", admin: "Admin" };

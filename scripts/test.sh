@@ -1,0 +1,35 @@
+#!/usr/bin/env bash
+# npm test: set-up, then type-check, lint, unit and integration tests, a production build and
+# the end-to-end tests in Debian's Chromium. Exits non-zero on the first failure.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+. scripts/setup.sh
+
+step() { printf '\n== %s\n' "$*"; }
+
+if [ ! -x /usr/bin/chromium ]; then
+  if [ "$(id -u)" = 0 ]; then
+    step "installing Debian's chromium for the end-to-end tests"
+    apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium >/dev/null
+  else
+    echo "test: /usr/bin/chromium is missing; as root run: apt-get install -y chromium" >&2; exit 1
+  fi
+fi
+
+step "type-check"
+node_modules/.bin/tsc --noEmit -p .
+step "lint"
+node_modules/.bin/eslint --max-warnings=0 .
+step "unit tests"
+node_modules/.bin/vitest run --project unit
+step "integration tests (MariaDB database ${DB_TEST_NAME:-platewright_test})"
+DB_NAME=${DB_TEST_NAME:-platewright_test} node_modules/.bin/vitest run --project integration
+step "production build"
+node_modules/.bin/next build
+step "end-to-end tests (Chromium)"
+export DB_NAME=${DB_E2E_NAME:-platewright_e2e}
+bash scripts/db.sh sql -e "DROP DATABASE IF EXISTS \`$DB_NAME\`"
+bash scripts/db.sh start >/dev/null
+node_modules/.bin/tsx scripts/migrate.ts
+node_modules/.bin/tsx db/seed.ts
+node_modules/.bin/playwright test
