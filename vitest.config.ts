@@ -4,7 +4,7 @@ import { fileURLToPath } from "node:url";
 const root = fileURLToPath(new URL(".", import.meta.url));
 
 export default defineConfig({
-  resolve: { alias: { "@": root } },
+  resolve: { alias: { "@": root, "server-only": `${root}tests/support/empty.ts` } },
   test: {
     projects: [
       {
@@ -21,6 +21,8 @@ export default defineConfig({
           hookTimeout: 60_000,
           fileParallelism: false,
           globalSetup: ["tests/integration/global-setup.ts"],
+          // Integration tests own a database of their own on the private server; never the app's.
+          env: { DB_NAME: process.env.DB_TEST_NAME ?? "platewright_test", NODE_ENV: "test" },
         },
       },
     ],

@@ -24,12 +24,5 @@ step "unit tests"
 node_modules/.bin/vitest run --project unit
 step "integration tests (MariaDB database ${DB_TEST_NAME:-platewright_test})"
 DB_NAME=${DB_TEST_NAME:-platewright_test} node_modules/.bin/vitest run --project integration
-step "production build"
-node_modules/.bin/next build
-step "end-to-end tests (Chromium)"
-export DB_NAME=${DB_E2E_NAME:-platewright_e2e}
-bash scripts/db.sh sql -e "DROP DATABASE IF EXISTS \`$DB_NAME\`"
-bash scripts/db.sh start >/dev/null
-node_modules/.bin/tsx scripts/migrate.ts
-node_modules/.bin/tsx db/seed.ts
-node_modules/.bin/playwright test
+step "production build and end-to-end tests (Chromium)"
+bash scripts/e2e.sh
