@@ -71,7 +71,7 @@ describe("ASCII STL (solid / facet normal / outer loop / vertex / endloop / endf
     expect(r.format).toBe("stl-ascii");
     expect(r.soup.positions).toEqual(soup.positions);
     // three's STLLoader (0.187) only recognises lower-case 'solid' text; cross-check it where it reads.
-    if (!style.upper) expect(loaderPositions(new TextEncoder().encode(text))).toEqual(r.soup.positions);
+    if (!("upper" in style)) expect(loaderPositions(new TextEncoder().encode(text))).toEqual(r.soup.positions);
   });
 
   it("reads several solid blocks into one soup", () => {
