@@ -1,2 +1,5 @@
 export * from "./users";
 export * from "./workshop";
+export * from "./printers";
+export * from "./materials";
+export * from "./assemblies";
