@@ -6,6 +6,13 @@ export const permissions = {
   "bench:use": ["member"],
   "floor:view": ["operator", "admin"],
   "printers:set-state": ["operator", "admin"],
+  "printers:view": ["member", "operator", "admin"],
+  "printers:manage": ["admin"],
+  "materials:view": ["operator", "admin"],
+  "materials:manage": ["admin"],
+  "spools:manage": ["operator", "admin"],
+  "hours:edit": ["admin"],
+  "quotes:request": ["member", "operator", "admin"],
   "workshop:view": ["operator", "admin"],
   "workshop:edit": ["admin"],
   "people:manage": ["admin"],
@@ -31,10 +38,17 @@ export interface NavItem {
 /** The navigation each role sees. Later pages add themselves here. */
 export const navByRole: Record<Role, NavItem[]> = {
   member: [{ href: "/bench", label: "Bench" }],
-  operator: [{ href: "/floor", label: "Floor" }],
+  operator: [
+    { href: "/floor", label: "Floor" },
+    { href: "/printers", label: "Printers" },
+    { href: "/materials", label: "Materials" },
+  ],
   admin: [
     { href: "/workshop", label: "Workshop settings" },
     { href: "/floor", label: "Floor" },
+    { href: "/printers", label: "Printers" },
+    { href: "/materials", label: "Materials" },
+    { href: "/workshop/hours", label: "Opening hours" },
   ],
 };
 

@@ -1,4 +1,8 @@
 // Query keys in one place: mutations invalidate by prefix.
 export const queryKeys = {
   workshop: { all: ["workshop"] as const, settings: () => ["workshop", "settings"] as const },
+  printers: { all: ["printers"] as const, list: () => ["printers", "list"] as const },
+  materials: { all: ["materials"] as const, list: () => ["materials", "list"] as const },
+  hours: { all: ["hours"] as const },
+  quotes: { all: ["quotes"] as const, part: (input: unknown) => ["quotes", "part", input] as const },
 };
