@@ -92,3 +92,16 @@ test.describe("workshop settings", () => {
     await ctx.close();
   });
 });
+
+test("pages carry the security headers", async ({ request }) => {
+  const res = await request.get("/sign-in");
+  const h = res.headers();
+  expect(h["x-content-type-options"]).toBe("nosniff");
+  expect(h["x-frame-options"]).toBe("DENY");
+  const csp = h["content-security-policy"] ?? "";
+  // The policy must still let the mesh worker and WebAssembly run.
+  expect(csp).toContain("worker-src 'self' blob:");
+  expect(csp).toContain("'wasm-unsafe-eval'");
+  expect(csp).toContain("frame-ancestors 'none'");
+  expect(h["x-powered-by"]).toBeUndefined();
+});
