@@ -1,12 +1,9 @@
 import { datetime, double, index, int, mysqlEnum, mysqlTable, primaryKey, uniqueIndex, varchar } from "drizzle-orm/mysql-core";
 import { sql } from "drizzle-orm";
+// The enum values live beside the zod schemas so client forms need not import drizzle.
+import { materialTypes, printerStates } from "../../lib/validation/printers";
 
-/** Material families the workshop may stock; the keys of lib/estimate's MATERIALS. */
-export const materialTypes = ["pla", "petg", "abs", "asa", "tpu", "nylon", "pc"] as const;
-export type MaterialType = (typeof materialTypes)[number];
-
-export const printerStates = ["available", "busy", "maintenance"] as const;
-export type PrinterState = (typeof printerStates)[number];
+export { materialTypes, printerStates, type MaterialType, type PrinterState } from "../../lib/validation/printers";
 
 export const printers = mysqlTable("printers", {
   id: int("id").autoincrement().primaryKey(),

@@ -1,0 +1,153 @@
+import "server-only";
+import {
+  DEFAULT_SETTINGS,
+  DEFAULT_SUPPORT_DENSITY,
+  estimatePart,
+  MATERIALS,
+  quoteAssembly,
+  quoteCost,
+  type AssemblyQuote,
+  type CostBreakdown,
+  type PrintSettings,
+} from "@/lib/estimate";
+import { can } from "@/lib/permissions";
+import type { MaterialType } from "@/db/schema";
+import type { QuoteAssemblyInput, QuotePartInput } from "@/lib/validation/printers";
+import { AppError } from "./errors";
+import { materialPrices } from "./materials";
+import { listPrinters, type Printer } from "./printers";
+import type { SessionUser } from "./session";
+import { getWorkshopSettings } from "./workshop";
+
+/** Line width a little over the nozzle (0.45 mm for 0.4 mm): common practice, no source. */
+export const LINE_WIDTH_PER_NOZZLE = 1.125;
+
+export interface QuoteMaterial {
+  id: number;
+  name: string;
+  type: MaterialType;
+  densityGcm3: number;
+  densitySource: string;
+  pricePerKgCents: number;
+}
+
+/** One printer's price for a part: everything needed to keep it with a plate as charged. */
+export interface PrinterQuote {
+  printerId: number;
+  printerName: string;
+  state: Printer["state"];
+  /** False when the part is taller (or wider, when given) than the build volume. */
+  fits: boolean;
+  hourlyRateCents: number;
+  grams: number;
+  minutes: number;
+  /** The correction applied and how many finished plates it rests on. */
+  timeFactor: number;
+  gramsFactor: number;
+  samples: number;
+  gramsSamples: number;
+  cost: CostBreakdown;
+}
+
+export interface PartQuote {
+  currency: string;
+  material: QuoteMaterial;
+  /** Printers allowed this material, cheapest first among those the part fits; misfits last. */
+  options: PrinterQuote[];
+  quotedAt: string;
+}
+
+function fitsOn(p: Printer, input: QuotePartInput): boolean {
+  if (input.heightMm > p.heightMm) return false;
+  const { widthMm: w, depthMm: d } = input;
+  if (w === undefined || d === undefined) return true;
+  // Turned by a quarter on the bed if that is what makes it fit.
+  return (w <= p.bedXMm && d <= p.bedYMm) || (d <= p.bedXMm && w <= p.bedYMm);
+}
+
+function settingsFor(input: QuotePartInput, nozzleMm: number): PrintSettings {
+  return {
+    ...DEFAULT_SETTINGS,
+    layerHeightMm: input.layerHeightMm,
+    wallCount: input.wallCount,
+    lineWidthMm: nozzleMm * LINE_WIDTH_PER_NOZZLE,
+    infill: input.infillPercent / 100,
+    supportDensity: input.supports ? DEFAULT_SUPPORT_DENSITY : 0,
+  };
+}
+
+async function pickMaterial(input: QuotePartInput): Promise<QuoteMaterial> {
+  const rows = await materialPrices(input.material);
+  const m = input.materialId ? rows.find((r) => r.id === input.materialId) : rows[0];
+  if (!m) {
+    const name = MATERIALS[input.material].name;
+    throw new AppError("invalid", `The workshop has no ${name} in its price list.`, { material: [`No ${name} is priced yet.`] });
+  }
+  return { id: m.id, name: m.name, type: m.type, densityGcm3: m.densityGcm3, densitySource: m.densitySource, pricePerKgCents: m.pricePerKgCents };
+}
+
+function priceOn(p: Printer, input: QuotePartInput, material: QuoteMaterial, feeCents: number): PrinterQuote {
+  const geometry = {
+    volumeMm3: input.volumeMm3,
+    areaMm2: input.areaMm2,
+    heightMm: input.heightMm,
+    footprintAreaMm2: input.footprintAreaMm2,
+    supportVolumeMm3: input.supportVolumeMm3,
+  };
+  const e = estimatePart(geometry, settingsFor(input, p.nozzleMm), p, material, { calibration: p.calibration, feeCents });
+  return {
+    printerId: p.id,
+    printerName: p.name,
+    state: p.state,
+    fits: fitsOn(p, input),
+    hourlyRateCents: p.hourlyRateCents,
+    grams: e.grams,
+    minutes: e.time.minutes,
+    timeFactor: p.calibration.timeFactor,
+    gramsFactor: p.calibration.gramsFactor,
+    samples: p.calibration.samples,
+    gramsSamples: p.calibration.gramsSamples,
+    cost: e.cost,
+  };
+}
+
+/**
+ * The price of one part on every printer that may print its material: grams × price per kg +
+ * hours × rate (both after the printer's calibration) + the workshop's plate fee, cheapest first.
+ */
+export async function quotePart(user: SessionUser, input: QuotePartInput): Promise<PartQuote> {
+  if (!can(user.role, "quotes:request")) throw new AppError("forbidden", "Your role may not ask for quotes.");
+  const [settings, material, printers] = await Promise.all([getWorkshopSettings(), pickMaterial(input), listPrinters(user)]);
+  const able = printers.filter((p) => p.materials.includes(input.material));
+  if (!able.length) {
+    throw new AppError("invalid", `No printer here may print ${MATERIALS[input.material].name}.`, { material: ["No printer takes this material."] });
+  }
+  const options = able
+    .map((p) => priceOn(p, input, material, settings.plateFeeCents))
+    .sort((a, b) => Number(b.fits) - Number(a.fits) || a.cost.totalCents - b.cost.totalCents || a.printerName.localeCompare(b.printerName));
+  return { currency: settings.currency, material, options, quotedAt: new Date().toISOString() };
+}
+
+export interface AssemblyQuoteResult extends AssemblyQuote {
+  currency: string;
+  /** Per part: the printer and material its line was priced on (the cheapest that fits). */
+  choices: { label?: string; printerName: string; materialName: string; grams: number; minutes: number }[];
+}
+
+/** A whole assembly: each part on its cheapest fitting printer, the fee once for the assembly. */
+export async function quoteAssemblyParts(user: SessionUser, input: QuoteAssemblyInput): Promise<AssemblyQuoteResult> {
+  if (!can(user.role, "quotes:request")) throw new AppError("forbidden", "Your role may not ask for quotes.");
+  const settings = await getWorkshopSettings();
+  const lines: Parameters<typeof quoteAssembly>[0][number][] = [];
+  const choices: AssemblyQuoteResult["choices"] = [];
+  for (const [i, part] of input.parts.entries()) {
+    const { label, quantity, ...one } = part;
+    const q = await quotePart(user, one);
+    const best = q.options.find((o) => o.fits);
+    if (!best) throw new AppError("invalid", `${label ?? `Part ${i + 1}`} fits on no printer that takes its material.`);
+    const cost = quoteCost({ grams: best.grams, minutes: best.minutes }, best, q.material, 0);
+    lines.push({ label, quantity, cost });
+    choices.push({ label, printerName: best.printerName, materialName: q.material.name, grams: best.grams, minutes: best.minutes });
+  }
+  return { ...quoteAssembly(lines, settings.plateFeeCents), currency: settings.currency, choices };
+}
