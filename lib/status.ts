@@ -125,3 +125,38 @@ export function countStatuses(statuses: readonly PartStatus[]): StatusCounts {
 export function isDone(s: PartStatus): boolean {
   return s === "accepted";
 }
+
+export interface BedSize {
+  id: number;
+  name: string;
+  bedX: number;
+  bedY: number;
+  height: number;
+  materials: string[];
+}
+
+export interface FitResult {
+  printerId: number;
+  name: string;
+  fits: boolean;
+  /** Why not, in plain words; empty when it fits. */
+  reason: string;
+}
+
+/**
+ * Whether a part of the given size (mm, as uploaded: Z up) fits each printer: its footprint may
+ * turn 90° on the bed, its height must fit under the gantry, and the printer must take the
+ * material (a printer with no list takes anything). Turning it over is the orientation step's job.
+ */
+export function fitPrinters(size: readonly [number, number, number], material: string, beds: readonly BedSize[]): FitResult[] {
+  const [x, y, z] = size;
+  const m = material.trim().toLowerCase();
+  return beds.map((b) => {
+    const flat = (x <= b.bedX && y <= b.bedY) || (y <= b.bedX && x <= b.bedY);
+    const reasons: string[] = [];
+    if (!flat) reasons.push(`footprint ${x.toFixed(1)} × ${y.toFixed(1)} mm is larger than the ${b.bedX} × ${b.bedY} mm bed`);
+    if (z > b.height) reasons.push(`height ${z.toFixed(1)} mm is over its ${b.height} mm`);
+    if (b.materials.length > 0 && !b.materials.some((bm) => bm.toLowerCase() === m)) reasons.push(`it does not print ${material}`);
+    return { printerId: b.id, name: b.name, fits: reasons.length === 0, reason: reasons.join("; ") };
+  });
+}

@@ -1,0 +1,17 @@
+// POST /api/assemblies/[id]/parts: add a printed part (owner or edit share).
+import { NextResponse } from "next/server";
+import { parseId } from "@/lib/server/assemblies";
+import { errorResponse, readJson } from "@/lib/server/errors";
+import { createPart } from "@/lib/server/parts";
+import { requireUser } from "@/lib/server/session";
+import { partInput } from "@/lib/validation/assemblies";
+
+export async function POST(req: Request, ctx: { params: Promise<{ id: string }> }) {
+  try {
+    const user = await requireUser("bench:use");
+    const id = parseId((await ctx.params).id);
+    return NextResponse.json(await createPart(user, id, partInput.parse(await readJson(req))), { status: 201 });
+  } catch (e) {
+    return errorResponse(e);
+  }
+}

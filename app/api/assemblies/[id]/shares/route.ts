@@ -1,0 +1,39 @@
+// GET/POST/DELETE /api/assemblies/[id]/shares: the owner lists, adds (read or edit) or removes (?userId=) members an assembly is shared with.
+import { NextResponse } from "next/server";
+import { listShares, parseId, shareAssembly, unshareAssembly } from "@/lib/server/assemblies";
+import { errorResponse, readJson } from "@/lib/server/errors";
+import { requireUser } from "@/lib/server/session";
+import { shareInput } from "@/lib/validation/assemblies";
+
+type Ctx = { params: Promise<{ id: string }> };
+
+export async function GET(_req: Request, ctx: Ctx) {
+  try {
+    const user = await requireUser("bench:use");
+    return NextResponse.json(await listShares(user, parseId((await ctx.params).id)));
+  } catch (e) {
+    return errorResponse(e);
+  }
+}
+
+export async function POST(req: Request, ctx: Ctx) {
+  try {
+    const user = await requireUser("bench:use");
+    const id = parseId((await ctx.params).id);
+    return NextResponse.json(await shareAssembly(user, id, shareInput.parse(await readJson(req))), { status: 201 });
+  } catch (e) {
+    return errorResponse(e);
+  }
+}
+
+export async function DELETE(req: Request, ctx: Ctx) {
+  try {
+    const user = await requireUser("bench:use");
+    const id = parseId((await ctx.params).id);
+    const target = parseId(new URL(req.url).searchParams.get("userId") ?? "");
+    await unshareAssembly(user, id, target);
+    return new NextResponse(null, { status: 204 });
+  } catch (e) {
+    return errorResponse(e);
+  }
+}

@@ -1,0 +1,23 @@
+// PUT /api/parts/[partId]/file?name=…&units=mm|in: upload a new mesh version as the raw body (application/octet-stream).
+import { NextResponse } from "next/server";
+import { parseId } from "@/lib/server/assemblies";
+import { AppError, errorResponse } from "@/lib/server/errors";
+import { requireUser } from "@/lib/server/session";
+import { receiveUpload } from "@/lib/server/uploads";
+import { uploadQuery } from "@/lib/validation/assemblies";
+
+export async function PUT(req: Request, ctx: { params: Promise<{ partId: string }> }) {
+  try {
+    const user = await requireUser("bench:use");
+    const id = parseId((await ctx.params).partId);
+    const sp = new URL(req.url).searchParams;
+    const q = uploadQuery.parse({ name: sp.get("name") ?? "", ...(sp.has("units") ? { units: sp.get("units") } : {}) });
+    const type = (req.headers.get("content-type") ?? "").toLowerCase();
+    if (!type.startsWith("application/octet-stream")) throw new AppError("bad_request", "Send the file as application/octet-stream.");
+    const len = req.headers.get("content-length");
+    const result = await receiveUpload(user, id, req.body, q, { declaredLength: len ? Number(len) : undefined });
+    return NextResponse.json(result, { status: 201 });
+  } catch (e) {
+    return errorResponse(e);
+  }
+}

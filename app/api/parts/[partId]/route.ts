@@ -1,0 +1,38 @@
+// GET /api/parts/[partId]: the part with its copies, history, analysis and printer fit. PATCH: edit it. DELETE: remove it.
+import { NextResponse } from "next/server";
+import { parseId } from "@/lib/server/assemblies";
+import { errorResponse, readJson } from "@/lib/server/errors";
+import { deletePart, getPartDetail, updatePart } from "@/lib/server/parts";
+import { requireUser } from "@/lib/server/session";
+import { partPatch } from "@/lib/validation/assemblies";
+
+type Ctx = { params: Promise<{ partId: string }> };
+
+export async function GET(_req: Request, ctx: Ctx) {
+  try {
+    const user = await requireUser();
+    return NextResponse.json(await getPartDetail(user, parseId((await ctx.params).partId)));
+  } catch (e) {
+    return errorResponse(e);
+  }
+}
+
+export async function PATCH(req: Request, ctx: Ctx) {
+  try {
+    const user = await requireUser("bench:use");
+    const id = parseId((await ctx.params).partId);
+    return NextResponse.json(await updatePart(user, id, partPatch.parse(await readJson(req))));
+  } catch (e) {
+    return errorResponse(e);
+  }
+}
+
+export async function DELETE(_req: Request, ctx: Ctx) {
+  try {
+    const user = await requireUser("bench:use");
+    await deletePart(user, parseId((await ctx.params).partId));
+    return new NextResponse(null, { status: 204 });
+  } catch (e) {
+    return errorResponse(e);
+  }
+}

@@ -1,0 +1,17 @@
+// POST /api/parts/[partId]/status: move one copy of a part to another status (rules in lib/status), recorded with who, when and why.
+import { NextResponse } from "next/server";
+import { parseId } from "@/lib/server/assemblies";
+import { errorResponse, readJson } from "@/lib/server/errors";
+import { changeStatus } from "@/lib/server/parts";
+import { requireUser } from "@/lib/server/session";
+import { statusChangeInput } from "@/lib/validation/assemblies";
+
+export async function POST(req: Request, ctx: { params: Promise<{ partId: string }> }) {
+  try {
+    const user = await requireUser();
+    const id = parseId((await ctx.params).partId);
+    return NextResponse.json(await changeStatus(user, id, statusChangeInput.parse(await readJson(req))));
+  } catch (e) {
+    return errorResponse(e);
+  }
+}

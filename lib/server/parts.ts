@@ -1,0 +1,330 @@
+import "server-only";
+import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
+import { db } from "@/db";
+import { assemblies, assemblyShares, partFiles, partInstances, parts, statusEvents, users } from "@/db/schema";
+import { allowedTargets, fitPrinters, planTransition, type FitResult, type PartStatus } from "@/lib/status";
+import type { PartInput, PartPatch, StatusChangeInput } from "@/lib/validation/assemblies";
+import { accessTo, ancestors, canEdit, itemsOf, listShares, requireEdit, subtreeIds, type Access } from "./assemblies";
+import { AppError } from "./errors";
+import { listPrinterBeds } from "./printers";
+import type { SessionUser } from "./session";
+import { getWorkshopSettings } from "./workshop";
+
+export const partColumns = {
+  id: parts.id,
+  assemblyId: parts.assemblyId,
+  name: parts.name,
+  quantity: parts.quantity,
+  material: parts.material,
+  colour: parts.colour,
+  layerHeightMm: parts.layerHeightMm,
+  walls: parts.walls,
+  infillPercent: parts.infillPercent,
+  notes: parts.notes,
+  currentFileId: parts.currentFileId,
+  version: parts.version,
+};
+
+const noPart = () => new AppError("not_found", "No such part, or it is not shared with you.");
+
+/** The part's assembly access; a part the caller may not read is reported as missing. */
+export async function partAccess(user: SessionUser, partId: number): Promise<{ access: Access; assemblyId: number }> {
+  const [row] = await db().select({ assemblyId: parts.assemblyId }).from(parts).where(eq(parts.id, partId)).limit(1);
+  if (!row) throw noPart();
+  const a = await accessTo(user, row.assemblyId).catch(() => {
+    throw noPart();
+  });
+  return { access: a.access, assemblyId: row.assemblyId };
+}
+
+export async function requirePartEdit(user: SessionUser, partId: number): Promise<{ assemblyId: number }> {
+  const { access, assemblyId } = await partAccess(user, partId);
+  if (!canEdit(access)) {
+    throw new AppError("forbidden", access === "workshop" ? "The workshop reads members' parts but does not change them." : "This part is shared with you to read only.");
+  }
+  return { assemblyId };
+}
+
+type Tx = Parameters<Parameters<ReturnType<typeof db>["transaction"]>[0]>[0];
+
+async function addInstances(tx: Tx, partId: number, from: number, to: number, by: number): Promise<void> {
+  for (let copy = from; copy <= to; copy++) {
+    const [res] = await tx.insert(partInstances).values({ partId, copyNo: copy }).$returningId();
+    await tx.insert(statusEvents).values({ instanceId: res!.id, fromStatus: null, toStatus: "drafted", byUserId: by, reason: "Part added" });
+  }
+}
+
+/** A new part starts drafted, one instance per copy needed, with the workshop's default settings. */
+export async function createPart(user: SessionUser, assemblyId: number, input: PartInput): Promise<{ id: number }> {
+  await requireEdit(user, assemblyId);
+  const w = await getWorkshopSettings();
+  return db().transaction(async (tx) => {
+    const [res] = await tx
+      .insert(parts)
+      .values({
+        assemblyId,
+        name: input.name,
+        quantity: input.quantity,
+        material: input.material,
+        colour: input.colour,
+        notes: input.notes,
+        layerHeightMm: input.layerHeightMm ?? w.defaultLayerHeightMm,
+        walls: input.walls ?? w.defaultWalls,
+        infillPercent: input.infillPercent ?? w.defaultInfillPercent,
+      })
+      .$returningId();
+    const id = res!.id;
+    await addInstances(tx, id, 1, input.quantity, user.id);
+    return { id };
+  });
+}
+
+/**
+ * Raising the quantity adds drafted copies; lowering it removes the highest copies, but only
+ * while they are still with the owner (drafted or ready), so nothing in the workshop vanishes.
+ */
+export async function updatePart(user: SessionUser, partId: number, patch: PartPatch): Promise<{ id: number; version: number }> {
+  await requirePartEdit(user, partId);
+  const { version, ...values } = patch;
+  return db().transaction(async (tx) => {
+    const [cur] = await tx.select({ quantity: parts.quantity }).from(parts).where(eq(parts.id, partId)).for("update");
+    const [res] = await tx
+      .update(parts)
+      .set({ ...values, version: sql`${parts.version} + 1`, updatedAt: new Date() })
+      .where(and(eq(parts.id, partId), eq(parts.version, version)));
+    if (!cur || res.affectedRows === 0) throw new AppError("conflict", "Someone changed this part since you opened it. Reload to see their changes.");
+    const q = values.quantity;
+    if (q !== undefined && q > cur.quantity) await addInstances(tx, partId, cur.quantity + 1, q, user.id);
+    if (q !== undefined && q < cur.quantity) {
+      const extra = await tx
+        .select({ id: partInstances.id, status: partInstances.status })
+        .from(partInstances)
+        .where(and(eq(partInstances.partId, partId), sql`${partInstances.copyNo} > ${q}`));
+      if (extra.some((e) => e.status !== "drafted" && e.status !== "ready")) {
+        throw new AppError("conflict", "Some of the copies you would remove are already in the workshop.", { quantity: ["Copies already queued or further along cannot be removed."] });
+      }
+      if (extra.length) await tx.delete(partInstances).where(inArray(partInstances.id, extra.map((e) => e.id)));
+    }
+    return { id: partId, version: version + 1 };
+  });
+}
+
+export async function deletePart(user: SessionUser, partId: number): Promise<void> {
+  await requirePartEdit(user, partId);
+  const busy = await db()
+    .select({ n: sql<number>`COUNT(*)` })
+    .from(partInstances)
+    .where(and(eq(partInstances.partId, partId), inArray(partInstances.status, ["plated", "printing"])));
+  if (Number(busy[0]?.n ?? 0) > 0) throw new AppError("conflict", "A copy of this part is on a plate or printing; it cannot be deleted now.");
+  await db().delete(parts).where(eq(parts.id, partId));
+}
+
+/**
+ * One status change, checked against the rules in lib/status and recorded with who, when and why.
+ * The instance's version guards against two people moving the same copy at once.
+ */
+export async function changeStatus(user: SessionUser, partId: number, input: StatusChangeInput): Promise<{ status: PartStatus; reprints: number; version: number }> {
+  const { access } = await partAccess(user, partId);
+  return db().transaction(async (tx) => {
+    const [inst] = await tx
+      .select({ status: partInstances.status, reprints: partInstances.reprints, version: partInstances.version })
+      .from(partInstances)
+      .where(and(eq(partInstances.id, input.instanceId), eq(partInstances.partId, partId)))
+      .for("update");
+    if (!inst) throw new AppError("not_found", "No such copy of this part.");
+    if (inst.version !== input.version) throw new AppError("conflict", "This copy changed since you opened it. Reload to see its status.");
+    const plan = planTransition({ from: inst.status, to: input.to, role: user.role, canEdit: canEdit(access), reason: input.reason });
+    if (!plan.ok) {
+      const code = user.role === "member" && !canEdit(access) ? "forbidden" : "invalid";
+      throw new AppError(code, plan.message, code === "invalid" ? { to: [plan.message] } : undefined);
+    }
+    const reprints = inst.reprints + (plan.reprint ? 1 : 0);
+    await tx
+      .update(partInstances)
+      .set({ status: plan.final, reprints, version: sql`${partInstances.version} + 1`, updatedAt: new Date() })
+      .where(eq(partInstances.id, input.instanceId));
+    for (const [i, step] of plan.steps.entries()) {
+      const reason = i === 0 ? input.reason : `Back to the queue for reprint ${reprints}`;
+      await tx.insert(statusEvents).values({ instanceId: input.instanceId, fromStatus: step.from, toStatus: step.to, byUserId: user.id, reason });
+    }
+    return { status: plan.final, reprints, version: inst.version + 1 };
+  });
+}
+
+export async function printerFits(size: [number, number, number] | null, material: string): Promise<{ printers: number; fits: FitResult[] }> {
+  // Printers may not be set up yet (or their table not migrated): that is "no printers", not an error.
+  const beds = await listPrinterBeds().catch(() => []);
+  if (!size) return { printers: beds.length, fits: [] };
+  return { printers: beds.length, fits: fitPrinters(size, material, beds) };
+}
+
+/** Everything the part page shows. */
+export async function getPartDetail(user: SessionUser, partId: number) {
+  const { access, assemblyId } = await partAccess(user, partId);
+  const d = db();
+  const [part] = await d.select(partColumns).from(parts).where(eq(parts.id, partId)).limit(1);
+  if (!part) throw noPart();
+  const info = await accessTo(user, assemblyId);
+  const files = await d
+    .select({
+      id: partFiles.id,
+      versionNo: partFiles.versionNo,
+      originalName: partFiles.originalName,
+      units: partFiles.units,
+      format: partFiles.format,
+      sha256: partFiles.sha256,
+      analysis: partFiles.analysis,
+      uploadedAt: partFiles.uploadedAt,
+      uploadedBy: users.name,
+    })
+    .from(partFiles)
+    .innerJoin(users, eq(users.id, partFiles.uploadedBy))
+    .where(eq(partFiles.partId, partId))
+    .orderBy(desc(partFiles.versionNo));
+  const instances = await d
+    .select({ id: partInstances.id, copyNo: partInstances.copyNo, status: partInstances.status, reprints: partInstances.reprints, version: partInstances.version })
+    .from(partInstances)
+    .where(eq(partInstances.partId, partId))
+    .orderBy(asc(partInstances.copyNo));
+  const events = instances.length
+    ? await d
+        .select({ id: statusEvents.id, instanceId: statusEvents.instanceId, from: statusEvents.fromStatus, to: statusEvents.toStatus, by: users.name, at: statusEvents.at, reason: statusEvents.reason })
+        .from(statusEvents)
+        .innerJoin(users, eq(users.id, statusEvents.byUserId))
+        .where(inArray(statusEvents.instanceId, instances.map((i) => i.id)))
+        .orderBy(desc(statusEvents.at), desc(statusEvents.id))
+    : [];
+  const current = files.find((f) => f.id === part.currentFileId) ?? null;
+  const size = current ? ((current.analysis as { size: [number, number, number] }).size ?? null) : null;
+  const fit = await printerFits(size, part.material);
+  const editable = canEdit(access);
+  return {
+    part,
+    access,
+    canEdit: editable,
+    trail: ancestors(info.tree, assemblyId).reverse().map((n) => ({ id: n.id, name: n.name })),
+    current,
+    files,
+    instances: instances.map((i) => ({ ...i, next: allowedTargets(i.status, user.role, editable) })),
+    events,
+    fit,
+  };
+}
+
+export type PartDetail = Awaited<ReturnType<typeof getPartDetail>>;
+
+/** One row per part across every assembly the member owns or has been shared. */
+export async function listMyParts(user: SessionUser) {
+  const d = db();
+  const own = await d.select({ id: assemblies.id }).from(assemblies).where(eq(assemblies.ownerId, user.id));
+  const sharedRoots = await d.select({ id: assemblyShares.assemblyId }).from(assemblyShares).where(eq(assemblyShares.userId, user.id));
+  const ids = new Set(own.map((r) => r.id));
+  for (const s of sharedRoots) {
+    const info = await accessTo(user, s.id);
+    for (const id of subtreeIds(info.tree, s.id)) ids.add(id);
+  }
+  if (ids.size === 0) return [];
+  const rows = await d
+    .select({ ...partColumns, assemblyName: assemblies.name })
+    .from(parts)
+    .innerJoin(assemblies, eq(assemblies.id, parts.assemblyId))
+    .where(inArray(parts.assemblyId, [...ids]))
+    .orderBy(asc(parts.name));
+  const inst = rows.length
+    ? await d.select({ partId: partInstances.partId, status: partInstances.status, reprints: partInstances.reprints }).from(partInstances).where(inArray(partInstances.partId, rows.map((r) => r.id)))
+    : [];
+  return rows.map((r) => {
+    const mine = inst.filter((i) => i.partId === r.id);
+    return { ...r, statuses: mine.map((i) => i.status), reprints: mine.reduce((s, i) => s + i.reprints, 0) };
+  });
+}
+
+export type MyPartRow = Awaited<ReturnType<typeof listMyParts>>[number];
+
+/** The assembly page: its tree below it, parts and items, progress per node and what blocks it. */
+export async function getAssemblyDetail(user: SessionUser, id: number) {
+  const info = await accessTo(user, id);
+  const d = db();
+  const ids = subtreeIds(info.tree, id);
+  const [head] = await d
+    .select({ id: assemblies.id, name: assemblies.name, description: assemblies.description, targetDate: assemblies.targetDate, version: assemblies.version, ownerName: users.name })
+    .from(assemblies)
+    .innerJoin(users, eq(users.id, assemblies.ownerId))
+    .where(eq(assemblies.id, id));
+  if (!head) throw new AppError("not_found", "No such assembly, or it is not shared with you.");
+  const partRows = await d
+    .select({ ...partColumns, size: sql<string | null>`JSON_EXTRACT(${partFiles.analysis}, '$.size')` })
+    .from(parts)
+    .leftJoin(partFiles, eq(partFiles.id, parts.currentFileId))
+    .where(inArray(parts.assemblyId, ids))
+    .orderBy(asc(parts.name));
+  const inst = partRows.length
+    ? await d.select({ partId: partInstances.partId, status: partInstances.status, reprints: partInstances.reprints }).from(partInstances).where(inArray(partInstances.partId, partRows.map((p) => p.id)))
+    : [];
+  const itemRows = await itemsOf(ids);
+  const beds = await listPrinterBeds().catch(() => []);
+  const partsOut = partRows.map((p) => {
+    const mine = inst.filter((i) => i.partId === p.id);
+    const size = p.size ? (JSON.parse(p.size) as [number, number, number]) : null;
+    const fits = size && beds.length ? fitPrinters(size, p.material, beds).filter((f) => f.fits).length : null;
+    const { size: _s, ...rest } = p;
+    return { ...rest, size, statuses: mine.map((i) => i.status), reprintsPending: mine.filter((i) => i.reprints > 0 && i.status !== "printed" && i.status !== "accepted").length, fittingPrinters: fits };
+  });
+  const nodeIds = (n: number) => new Set(subtreeIds(info.tree, n));
+  const nodes = ids.map((n) => {
+    const node = info.tree.find((t) => t.id === n)!;
+    const under = nodeIds(n);
+    const sts = partsOut.filter((p) => under.has(p.assemblyId)).flatMap((p) => p.statuses);
+    return { id: n, parentId: n === id ? null : node.parentId, name: node.name, needed: sts.length, done: sts.filter((s) => s === "accepted").length };
+  });
+  const blockers = {
+    failed: partsOut.filter((p) => p.reprintsPending > 0).map((p) => ({ id: p.id, name: p.name, count: p.reprintsPending })),
+    notUploaded: partsOut.filter((p) => p.currentFileId === null).map((p) => ({ id: p.id, name: p.name })),
+    notFitting: partsOut.filter((p) => p.fittingPrinters === 0).map((p) => ({ id: p.id, name: p.name })),
+    hardwareNotInHand: itemRows.filter((i) => i.status !== "in_hand").map((i) => ({ id: i.id, name: i.name, status: i.status })),
+  };
+  return {
+    assembly: head,
+    access: info.access,
+    canEdit: canEdit(info.access),
+    trail: ancestors(info.tree, id).reverse().map((n) => ({ id: n.id, name: n.name })),
+    nodes,
+    parts: partsOut,
+    items: itemRows,
+    blockers,
+    printers: beds.length,
+    shares: await listShares(user, id),
+  };
+}
+
+export type AssemblyDetail = Awaited<ReturnType<typeof getAssemblyDetail>>;
+
+const csvCell = (v: string | number | null) => {
+  const s = v === null ? "" : String(v);
+  // RFC 4180: quote cells holding commas, quotes or line breaks; double the quotes inside.
+  // A leading = + - @ is prefixed so a spreadsheet does not run it as a formula (common practice, OWASP "CSV injection").
+  const safe = /^[=+\-@]/.test(s) ? `'${s}` : s;
+  return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
+};
+
+/** The bill of materials for an assembly and everything below it, as CSV (RFC 4180, CRLF). */
+export async function bomCsv(user: SessionUser, id: number): Promise<{ filename: string; csv: string }> {
+  const det = await getAssemblyDetail(user, id);
+  const where = new Map(det.nodes.map((n) => [n.id, n.name]));
+  const rows: (string | number | null)[][] = [["Type", "Name", "Sub-assembly", "Quantity", "Material or source", "Colour", "Status", "Unit price (cents)", "Due date"]];
+  for (const p of det.parts) {
+    rows.push(["printed part", p.name, where.get(p.assemblyId) ?? "", p.quantity, p.material, p.colour, summarise(p.statuses), null, null]);
+  }
+  for (const i of det.items) {
+    rows.push([i.kind === "hardware" ? "bought hardware" : "made elsewhere", i.name, where.get(i.assemblyId) ?? "", i.quantity, i.source, "", i.status.replace("_", " "), i.unitPriceCents, i.dueDate]);
+  }
+  const csv = rows.map((r) => r.map(csvCell).join(",")).join("\r\n") + "\r\n";
+  const slug = det.assembly.name.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "assembly";
+  return { filename: `${slug}-bom.csv`, csv };
+}
+
+function summarise(statuses: PartStatus[]): string {
+  const c = new Map<string, number>();
+  for (const s of statuses) c.set(s, (c.get(s) ?? 0) + 1);
+  return [...c].map(([s, n]) => `${n} ${s}`).join("; ");
+}

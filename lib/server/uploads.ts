@@ -1,0 +1,148 @@
+import "server-only";
+import { createHash, randomUUID } from "node:crypto";
+import { mkdir, open, readFile, rm } from "node:fs/promises";
+import path from "node:path";
+import { and, eq, sql } from "drizzle-orm";
+import { db } from "@/db";
+import { meshBlobs, partFiles, parts } from "@/db/schema";
+import { env } from "@/lib/env";
+import { analysisToJson, analyzeBytes, isMeshReadError, type AnalysisJson } from "@/lib/mesh";
+import type { UploadQuery } from "@/lib/validation/assemblies";
+import { AppError } from "./errors";
+import { partAccess, requirePartEdit } from "./parts";
+import type { SessionUser } from "./session";
+import { blobStore, tempDir } from "./storage";
+
+export interface UploadResult {
+  fileId: number;
+  versionNo: number;
+  sha256: string;
+  sizeBytes: number;
+  /** True when these exact bytes were stored already (by anyone) and were not written again. */
+  alreadyStored: boolean;
+  analysis: AnalysisJson;
+  warnings: string[];
+}
+
+export function uploadLimitBytes(): number {
+  return Math.floor(env().UPLOAD_LIMIT_MB * 1024 * 1024);
+}
+
+const tooLarge = (limit: number) => new AppError("too_large", `The file is larger than the upload limit of ${Math.round(limit / 1024 / 1024)} MB.`);
+
+/** Streams a body to a temporary file while hashing and counting; stops at the limit. */
+async function spool(body: ReadableStream<Uint8Array>, temp: string, limit: number): Promise<{ sha256: string; size: number }> {
+  const hash = createHash("sha256");
+  const fh = await open(temp, "wx");
+  const reader = body.getReader();
+  let size = 0;
+  try {
+    for (;;) {
+      const { done, value } = await reader.read();
+      if (done) break;
+      size += value.byteLength;
+      if (size > limit) {
+        await reader.cancel().catch(() => undefined);
+        throw tooLarge(limit);
+      }
+      hash.update(value);
+      await fh.write(value);
+    }
+  } finally {
+    await fh.close();
+  }
+  return { sha256: hash.digest("hex"), size };
+}
+
+/**
+ * Receives one mesh for a part: spool to a temporary file, parse and analyse it with lib/mesh,
+ * and only then move it into content-addressed storage and record it, in one transaction. On any
+ * failure the temporary file is removed, and bytes stored by this call are taken back out.
+ */
+export async function receiveUpload(
+  user: SessionUser,
+  partId: number,
+  body: ReadableStream<Uint8Array> | null,
+  q: UploadQuery,
+  opts: { declaredLength?: number; limitBytes?: number } = {},
+): Promise<UploadResult> {
+  await requirePartEdit(user, partId);
+  const limit = opts.limitBytes ?? uploadLimitBytes();
+  if (opts.declaredLength !== undefined && opts.declaredLength > limit) throw tooLarge(limit);
+  if (!body) throw new AppError("bad_request", "Send the file's bytes as the request body.");
+  await mkdir(tempDir(), { recursive: true });
+  const temp = path.join(tempDir(), `${randomUUID()}.upload`);
+  const store = blobStore();
+  let stored = false;
+  let sha256 = "";
+  try {
+    const spooled = await spool(body, temp, limit);
+    sha256 = spooled.sha256;
+    const bytes = new Uint8Array(await readFile(temp));
+    let analysed;
+    try {
+      analysed = analyzeBytes(bytes, { filename: q.name, units: q.units });
+    } catch (e) {
+      if (isMeshReadError(e)) throw new AppError("invalid", `${q.name} could not be read: ${e.message}.`, { file: [e.message] });
+      throw e;
+    }
+    const json = analysisToJson(q.name, analysed.format, analysed.analysis);
+    stored = await store.putFile(sha256, temp);
+    const row = await db().transaction(async (tx) => {
+      await tx.insert(meshBlobs).ignore().values({ sha256, sizeBytes: spooled.size });
+      const [cur] = await tx.select({ id: parts.id }).from(parts).where(eq(parts.id, partId)).for("update");
+      if (!cur) throw new AppError("not_found", "The part was deleted while the file was uploading.");
+      const [max] = await tx.select({ n: sql<number>`COALESCE(MAX(${partFiles.versionNo}), 0)` }).from(partFiles).where(eq(partFiles.partId, partId));
+      const versionNo = Number(max?.n ?? 0) + 1;
+      const [res] = await tx
+        .insert(partFiles)
+        .values({
+          partId,
+          sha256,
+          versionNo,
+          originalName: q.name,
+          units: q.units,
+          format: json.format,
+          sizeX: json.size[0],
+          sizeY: json.size[1],
+          sizeZ: json.size[2],
+          volumeMm3: json.volume_mm3,
+          watertight: json.watertight ? 1 : 0,
+          analysis: json,
+          uploadedBy: user.id,
+        })
+        .$returningId();
+      await tx.update(parts).set({ currentFileId: res!.id, version: sql`${parts.version} + 1`, updatedAt: new Date() }).where(eq(parts.id, partId));
+      return { fileId: res!.id, versionNo };
+    });
+    return { ...row, sha256, sizeBytes: spooled.size, alreadyStored: !stored, analysis: json, warnings: analysed.warnings };
+  } catch (e) {
+    if (stored) await forgetIfUnused(sha256);
+    throw e;
+  } finally {
+    await rm(temp, { force: true });
+  }
+}
+
+/** Removes stored bytes that no recorded upload refers to (after a failed transaction). */
+async function forgetIfUnused(sha256: string): Promise<void> {
+  const [used] = await db().select({ n: sql<number>`COUNT(*)` }).from(partFiles).where(eq(partFiles.sha256, sha256));
+  if (Number(used?.n ?? 0) > 0) return;
+  await db().delete(meshBlobs).where(eq(meshBlobs.sha256, sha256));
+  await blobStore().delete(sha256).catch(() => undefined);
+}
+
+/** A stored upload, for those who may read its part. */
+export async function openPartFile(user: SessionUser, fileId: number): Promise<{ name: string; size: number; stream: ReadableStream<Uint8Array> }> {
+  const [row] = await db()
+    .select({ partId: partFiles.partId, sha256: partFiles.sha256, name: partFiles.originalName, size: meshBlobs.sizeBytes })
+    .from(partFiles)
+    .innerJoin(meshBlobs, and(eq(meshBlobs.sha256, partFiles.sha256)))
+    .where(eq(partFiles.id, fileId))
+    .limit(1);
+  if (!row) throw new AppError("not_found", "No such file, or it is not shared with you.");
+  await partAccess(user, row.partId).catch(() => {
+    throw new AppError("not_found", "No such file, or it is not shared with you.");
+  });
+  return { name: row.name, size: row.size, stream: await blobStore().stream(row.sha256) };
+}
