@@ -3,3 +3,5 @@ export * from "./workshop";
 export * from "./printers";
 export * from "./materials";
 export * from "./assemblies";
+export * from "./mail";
+export * from "./ledger";
