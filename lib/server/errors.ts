@@ -39,9 +39,16 @@ export function zodFieldErrors(e: ZodError): Record<string, string[]> {
   return out;
 }
 
-function isDbDown(e: unknown): boolean {
-  const code = (e as { code?: string } | null)?.code;
-  return code === "ECONNREFUSED" || code === "PROTOCOL_CONNECTION_LOST" || code === "ETIMEDOUT" || code === "ER_CON_COUNT_ERROR";
+const DB_DOWN_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "PROTOCOL_CONNECTION_LOST", "ETIMEDOUT", "ER_CON_COUNT_ERROR", "EPIPE"]);
+
+/** True when the error (or one it wraps: drizzle wraps driver errors in `cause`) says the database is unreachable. */
+export function isDbDown(e: unknown): boolean {
+  for (let cur: unknown = e, depth = 0; cur && depth < 5; depth++) {
+    const code = (cur as { code?: string }).code;
+    if (code && DB_DOWN_CODES.has(code)) return true;
+    cur = (cur as { cause?: unknown }).cause;
+  }
+  return false;
 }
 
 /** Maps any thrown value to a JSON response; unknown errors are logged and answered generically. */
