@@ -259,3 +259,10 @@ export async function recordFinishedPlate(user: SessionUser, printerId: number, 
     return { historyId: res.id, spoolGramsRemaining: left };
   });
 }
+
+/** A route's [id] segment as a positive integer; anything else is a 404, not a 500. */
+export function parseId(raw: string): number {
+  const n = Number(raw);
+  if (!Number.isSafeInteger(n) || n <= 0) throw new AppError("not_found", "There is no such record.");
+  return n;
+}
