@@ -13,6 +13,23 @@ const schema = z.object({
   NEXTAUTH_URL: z.string().url().optional(),
   UPLOAD_LIMIT_MB: z.coerce.number().positive().default(200),
   STORAGE_DIR: z.string().default(".data/files"),
+  // Mail: "fake" sends to the local fake SMTP server (scripts/fakes.sh) and shows the mailbox page.
+  MAIL_MODE: z.enum(["fake", "smtp"]).default("fake"),
+  MAIL_FROM: z.string().default("Platewright <no-reply@platewright.localhost>"),
+  SMTP_HOST: z.string().default("127.0.0.1"),
+  SMTP_PORT: z.coerce.number().int().positive().default(2525),
+  SMTP_SECURE: z.enum(["true", "false"]).default("false"),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  MAILBOX_DIR: z.string().default(".data/mailbox"),
+  MAIL_OUTBOX_INTERVAL_MS: z.coerce.number().int().min(200).default(5000),
+  INVITE_TTL_HOURS: z.coerce.number().positive().default(168),
+  RESET_TTL_MINUTES: z.coerce.number().positive().default(60),
+  // Payments: "fake" talks to the local payment fake (scripts/fakes.sh) through the same SDK.
+  PAYMENTS_MODE: z.enum(["fake", "stripe"]).default("fake"),
+  PAYMENTS_SECRET_KEY: z.string().default("sk_test_platewright_fake"),
+  PAYMENTS_WEBHOOK_SECRET: z.string().default("whsec_platewright_fake_signing_secret"),
+  PAYMENTS_FAKE_PORT: z.coerce.number().int().positive().default(4242),
 });
 
 export type Env = z.infer<typeof schema>;
