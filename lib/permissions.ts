@@ -16,6 +16,10 @@ export const permissions = {
   "workshop:view": ["operator", "admin"],
   "workshop:edit": ["admin"],
   "people:manage": ["admin"],
+  "mail:admin": ["admin"],
+  "account:messages": ["member", "operator", "admin"],
+  "ledger:own": ["member"],
+  "ledger:admin": ["admin"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof permissions;
@@ -37,11 +41,17 @@ export interface NavItem {
 
 /** The navigation each role sees. Later pages add themselves here. */
 export const navByRole: Record<Role, NavItem[]> = {
-  member: [{ href: "/bench", label: "Bench" }],
+  member: [
+    { href: "/bench", label: "Bench" },
+    { href: "/bench/parts", label: "My parts" },
+    { href: "/ledger", label: "Ledger" },
+    { href: "/account", label: "Account" },
+  ],
   operator: [
     { href: "/floor", label: "Floor" },
     { href: "/printers", label: "Printers" },
     { href: "/materials", label: "Materials" },
+    { href: "/account", label: "Account" },
   ],
   admin: [
     { href: "/workshop", label: "Workshop settings" },
@@ -49,6 +59,8 @@ export const navByRole: Record<Role, NavItem[]> = {
     { href: "/printers", label: "Printers" },
     { href: "/materials", label: "Materials" },
     { href: "/workshop/hours", label: "Opening hours" },
+    { href: "/workshop/people", label: "People" },
+    { href: "/workshop/billing", label: "Billing" },
   ],
 };
 

@@ -5,4 +5,6 @@ export const queryKeys = {
   materials: { all: ["materials"] as const, list: () => ["materials", "list"] as const },
   hours: { all: ["hours"] as const },
   quotes: { all: ["quotes"] as const, part: (input: unknown) => ["quotes", "part", input] as const },
+  assemblies: { all: ["assemblies"] as const, list: () => ["assemblies", "list"] as const, detail: (id: number) => ["assemblies", "detail", id] as const },
+  parts: { all: ["parts"] as const, mine: () => ["parts", "mine"] as const, detail: (id: number) => ["parts", "detail", id] as const },
 };
