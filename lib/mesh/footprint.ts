@@ -2,9 +2,15 @@ import type { Vec3 } from "./types";
 
 /**
  * Footprint on the bed: the vertices projected onto the plane normal to `up`, their convex hull
- * (Andrew's monotone chain, after an Akl–Toussaint style polygon filter that drops points that cannot
- * be on the hull) and its area (shoelace formula), plus the axis-aligned rectangle in the same
- * plane coordinates. For up = +Z the plane axes are X and Y.
+ * and its area (shoelace formula), plus the axis-aligned rectangle in the same plane coordinates.
+ * For up = +Z the plane axes are X and Y.
+ *
+ * Hull: Akl–Toussaint filter (points strictly inside the octagon of the extreme points along x, y,
+ * x + y and y − x are dropped), then each region outside an octagon edge is narrowed by
+ * quickhull-style splits (the farthest point is a corner; points strictly inside the triangle it
+ * forms with the edge are dropped), then Andrew's monotone chain over the few survivors. Every
+ * dropped point is strictly inside a triangle of input points, so it is no hull corner: the output
+ * equals the monotone chain over all points (up to rounding of points within ~1e-16 of an edge).
  */
 export interface Footprint {
   /** Plane axes in model space: outline point (a, b) is a·axisU + b·axisV. */
@@ -29,56 +35,207 @@ export function planeAxes(up: Vec3): { u: Vec3; v: Vec3 } {
 
 const cross = (ox: number, oy: number, ax: number, ay: number, bx: number, by: number) => (ax - ox) * (by - oy) - (ay - oy) * (bx - ox);
 
+/** Growable flat [x, y, …] buffer. */
+class Points {
+  xy: Float64Array;
+  n = 0;
+  constructor(cap = 64) { this.xy = new Float64Array(2 * cap); }
+  push(x: number, y: number): void {
+    if (2 * this.n + 2 > this.xy.length) {
+      const next = new Float64Array(this.xy.length * 2);
+      next.set(this.xy);
+      this.xy = next;
+    }
+    this.xy[2 * this.n] = x;
+    this.xy[2 * this.n + 1] = y;
+    this.n++;
+  }
+}
+
+/** Indices of the extreme points at 0°, 45°, …, 315° (counter-clockwise): max x, x + y, y, y − x, then minima. */
+function octagonCorners(pts: Float64Array, n: number): number[] {
+  let i0 = 0, i1 = 0, i2 = 0, i3 = 0, i4 = 0, i5 = 0, i6 = 0, i7 = 0;
+  let xHi = -Infinity, sHi = -Infinity, yHi = -Infinity, dHi = -Infinity, xLo = Infinity, sLo = Infinity, yLo = Infinity, dLo = Infinity;
+  for (let i = 0; i < n; i++) {
+    const x = pts[2 * i]!, y = pts[2 * i + 1]!, s = x + y, d = y - x;
+    if (x > xHi) { xHi = x; i0 = i; }
+    if (s > sHi) { sHi = s; i1 = i; }
+    if (y > yHi) { yHi = y; i2 = i; }
+    if (d > dHi) { dHi = d; i3 = i; }
+    if (x < xLo) { xLo = x; i4 = i; }
+    if (s < sLo) { sLo = s; i5 = i; }
+    if (y < yLo) { yLo = y; i6 = i; }
+    if (d < dLo) { dLo = d; i7 = i; }
+  }
+  return [i0, i1, i2, i3, i4, i5, i6, i7];
+}
+
+/**
+ * Points not strictly inside the polygon of `corners` (input point ids, counter-clockwise), each in
+ * the bucket of the first edge it is not strictly left of; `null` when the polygon is degenerate.
+ */
+function outsideOctagon(pts: Float64Array, n: number, corners: number[]): { c: number[]; buckets: Points[] } | null {
+  const c: number[] = [];
+  for (const i of corners) {
+    const x = pts[2 * i]!, y = pts[2 * i + 1]!;
+    if (c.length >= 2 && c[c.length - 2] === x && c[c.length - 1] === y) continue; // zero-length edge
+    c.push(x, y);
+  }
+  while (c.length >= 4 && c[0] === c[c.length - 2] && c[1] === c[c.length - 1]) c.length -= 2;
+  const m = c.length >>> 1;
+  if (m < 3) return null;
+  // Edge k runs from (ax, ay) along (ex, ey). Short polygons repeat edge 0 up to eight edges: a
+  // point reaching a copy has already passed the original, so buckets are unchanged.
+  const e = new Float64Array(32);
+  for (let k = 0; k < 8; k++) {
+    const k1 = k < m ? k : 0, k2 = k1 + 1 === m ? 0 : k1 + 1;
+    e[4 * k] = c[2 * k1]!; e[4 * k + 1] = c[2 * k1 + 1]!;
+    e[4 * k + 2] = c[2 * k2]! - c[2 * k1]!; e[4 * k + 3] = c[2 * k2 + 1]! - c[2 * k1 + 1]!;
+  }
+  const a0x = e[0]!, a0y = e[1]!, e0x = e[2]!, e0y = e[3]!;
+  const a1x = e[4]!, a1y = e[5]!, e1x = e[6]!, e1y = e[7]!;
+  const a2x = e[8]!, a2y = e[9]!, e2x = e[10]!, e2y = e[11]!;
+  const a3x = e[12]!, a3y = e[13]!, e3x = e[14]!, e3y = e[15]!;
+  const a4x = e[16]!, a4y = e[17]!, e4x = e[18]!, e4y = e[19]!;
+  const a5x = e[20]!, a5y = e[21]!, e5x = e[22]!, e5y = e[23]!;
+  const a6x = e[24]!, a6y = e[25]!, e6x = e[26]!, e6y = e[27]!;
+  const a7x = e[28]!, a7y = e[29]!, e7x = e[30]!, e7y = e[31]!;
+  const buckets = Array.from({ length: m }, () => new Points(256));
+  for (let i = 0; i < n; i++) {
+    const x = pts[2 * i]!, y = pts[2 * i + 1]!;
+    // Strictly left of all eight edges (the common case, unrolled): inside, dropped.
+    if (e0x * (y - a0y) - e0y * (x - a0x) > 0 && e1x * (y - a1y) - e1y * (x - a1x) > 0 &&
+      e2x * (y - a2y) - e2y * (x - a2x) > 0 && e3x * (y - a3y) - e3y * (x - a3x) > 0 &&
+      e4x * (y - a4y) - e4y * (x - a4x) > 0 && e5x * (y - a5y) - e5y * (x - a5x) > 0 &&
+      e6x * (y - a6y) - e6y * (x - a6x) > 0 && e7x * (y - a7y) - e7y * (x - a7x) > 0) continue;
+    let k = 0;
+    while (e[k + 2]! * (y - e[k + 1]!) - e[k + 3]! * (x - e[k]!) > 0) k += 4;
+    buckets[k >>> 2]!.push(x, y);
+  }
+  return { c, buckets };
+}
+
+/** Pockets this small go to the chain as they are. */
+const SMALL_POCKET = 12;
+
+/**
+ * Narrow the points right of (or on) edge a→b, all in xy[lo, hi) as pairs, into `keep`.
+ * In-place partitions like a quicksort; an explicit stack instead of recursion.
+ */
+function narrowPocket(xy: Float64Array, lo0: number, hi0: number, a0x: number, a0y: number, b0x: number, b0y: number, keep: Points): void {
+  const stack: number[] = [lo0, hi0, a0x, a0y, b0x, b0y];
+  while (stack.length > 0) {
+    const by = stack.pop()!, bx = stack.pop()!, ay = stack.pop()!, ax = stack.pop()!, hi = stack.pop()!, lo = stack.pop()!;
+    if (hi - lo <= SMALL_POCKET) { for (let i = lo; i < hi; i++) keep.push(xy[2 * i]!, xy[2 * i + 1]!); continue; }
+    let far = -1, best = 0;
+    for (let i = lo; i < hi; i++) {
+      const d = cross(ax, ay, bx, by, xy[2 * i]!, xy[2 * i + 1]!);
+      if (d < best) { best = d; far = i; }
+    }
+    if (far < 0) { for (let i = lo; i < hi; i++) keep.push(xy[2 * i]!, xy[2 * i + 1]!); continue; }
+    swap(xy, lo, far);
+    const px = xy[2 * lo]!, py = xy[2 * lo + 1]!;
+    keep.push(px, py);
+    let w = lo + 1;
+    for (let i = lo + 1; i < hi; i++) if (cross(ax, ay, px, py, xy[2 * i]!, xy[2 * i + 1]!) <= 0) swap(xy, w++, i);
+    const mid = w;
+    for (let i = mid; i < hi; i++) {
+      const x = xy[2 * i]!, y = xy[2 * i + 1]!;
+      if (cross(px, py, bx, by, x, y) <= 0) swap(xy, w++, i);
+      else if (cross(ax, ay, bx, by, x, y) === 0) keep.push(x, y); // on a→b itself: not strictly inside
+      // else strictly inside triangle a, p, b: dropped
+    }
+    if (8 * (hi - w) < hi - lo) {
+      // Under an eighth dropped: the pocket is mostly hull corners (a fine polygon), so stop narrowing.
+      for (let i = lo + 1; i < w; i++) keep.push(xy[2 * i]!, xy[2 * i + 1]!);
+      continue;
+    }
+    stack.push(lo + 1, mid, ax, ay, px, py, mid, w, px, py, bx, by);
+  }
+}
+
+function swap(xy: Float64Array, i: number, j: number): void {
+  const x = xy[2 * i]!, y = xy[2 * i + 1]!;
+  xy[2 * i] = xy[2 * j]!; xy[2 * i + 1] = xy[2 * j + 1]!;
+  xy[2 * j] = x; xy[2 * j + 1] = y;
+}
+
+const after = (xy: Float64Array, i: number, j: number) => xy[2 * i]! > xy[2 * j]! || (xy[2 * i]! === xy[2 * j]! && xy[2 * i + 1]! > xy[2 * j + 1]!);
+
+/**
+ * Sort n points of xy in place by x, then y: quicksort on the pairs themselves (median of three,
+ * Hoare partition so runs of equal keys split evenly), insertion sort below 16 points.
+ */
+function sortPoints(xy: Float64Array, n: number): void {
+  const stack: number[] = [0, n - 1];
+  while (stack.length > 0) {
+    let hi = stack.pop()!, lo = stack.pop()!;
+    while (hi - lo > 16) {
+      const mid = (lo + hi) >>> 1;
+      if (after(xy, lo, mid)) swap(xy, lo, mid);
+      if (after(xy, mid, hi)) { swap(xy, mid, hi); if (after(xy, lo, mid)) swap(xy, lo, mid); }
+      const px = xy[2 * mid]!, py = xy[2 * mid + 1]!;
+      let i = lo, j = hi;
+      for (;;) {
+        do i++; while (xy[2 * i]! < px || (xy[2 * i]! === px && xy[2 * i + 1]! < py));
+        do j--; while (xy[2 * j]! > px || (xy[2 * j]! === px && xy[2 * j + 1]! > py));
+        if (i >= j) break;
+        swap(xy, i, j);
+      }
+      if (j - lo < hi - j) { stack.push(j + 1, hi); hi = j; } else { stack.push(lo, j); lo = j + 1; }
+    }
+    for (let i = lo + 1; i <= hi; i++) {
+      const x = xy[2 * i]!, y = xy[2 * i + 1]!;
+      let j = i - 1;
+      while (j >= lo && (xy[2 * j]! > x || (xy[2 * j]! === x && xy[2 * j + 1]! > y))) { xy[2 * j + 2] = xy[2 * j]!; xy[2 * j + 3] = xy[2 * j + 1]!; j--; }
+      xy[2 * j + 2] = x; xy[2 * j + 3] = y;
+    }
+  }
+}
+
+/** Andrew's monotone chain over n points sorted by x, then y. */
+function monotoneChain(s: Float64Array, m: number): Float64Array {
+  const h = new Float64Array(2 * (2 * m + 1));
+  let len = 0;
+  const push = (x: number, y: number, floor: number) => {
+    while (len >= 2 * (floor + 2) && cross(h[len - 4]!, h[len - 3]!, h[len - 2]!, h[len - 1]!, x, y) <= 0) len -= 2;
+    h[len++] = x; h[len++] = y;
+  };
+  for (let i = 0; i < m; i++) push(s[2 * i]!, s[2 * i + 1]!, 0);
+  const lower = len >>> 1;
+  for (let j = m - 2; j >= 0; j--) push(s[2 * j]!, s[2 * j + 1]!, lower - 1);
+  len -= 2; // the last point repeats the first
+  if (len <= 0) return s.slice(0, 2);
+  return h.slice(0, len);
+}
+
+function hullWith(pts: Float64Array, n: number, corners: number[]): Float64Array {
+  if (n === 0) return new Float64Array(0);
+  const out = outsideOctagon(pts, n, corners);
+  let cand: Float64Array, m: number;
+  if (!out) {
+    cand = pts.slice(0, 2 * n); // all points on a line or one point: never reorder the caller's array
+    m = n;
+  } else {
+    const keep = new Points(1024);
+    const { c, buckets } = out;
+    const k = c.length >>> 1;
+    for (let j = 0; j < k; j++) {
+      const j2 = j + 1 === k ? 0 : j + 1;
+      narrowPocket(buckets[j]!.xy, 0, buckets[j]!.n, c[2 * j]!, c[2 * j + 1]!, c[2 * j2]!, c[2 * j2 + 1]!, keep);
+    }
+    for (let j = 0; j < k; j++) keep.push(c[2 * j]!, c[2 * j + 1]!);
+    cand = keep.xy;
+    m = keep.n;
+  }
+  sortPoints(cand, m);
+  return monotoneChain(cand, m);
+}
+
 /** Convex hull of points given as [x0, y0, x1, y1, …]; counter-clockwise, no collinear points. */
 export function convexHull2d(pts: Float64Array): Float64Array {
   const n = pts.length >>> 1;
-  if (n === 0) return new Float64Array(0);
-  // Polygon of the extreme points in K evenly spread directions (counter-clockwise order): points
-  // strictly inside it cannot be hull corners and are dropped before sorting.
-  const K = 32;
-  const dx = new Float64Array(K), dy = new Float64Array(K);
-  for (let k = 0; k < K; k++) { dx[k] = Math.cos((2 * Math.PI * k) / K); dy[k] = Math.sin((2 * Math.PI * k) / K); }
-  const ext = new Int32Array(K);
-  const best = new Float64Array(K).fill(-Infinity);
-  for (let i = 0; i < n; i++) {
-    const x = pts[2 * i]!, y = pts[2 * i + 1]!;
-    for (let k = 0; k < K; k++) {
-      const d = x * dx[k]! + y * dy[k]!;
-      if (d > best[k]!) { best[k] = d; ext[k] = i; }
-    }
-  }
-  const poly: number[] = [];
-  for (let k = 0; k < K; k++) {
-    const i = ext[k]!;
-    const x = pts[2 * i]!, y = pts[2 * i + 1]!;
-    if (poly.length >= 2 && poly[poly.length - 2] === x && poly[poly.length - 1] === y) continue;
-    poly.push(x, y);
-  }
-  while (poly.length >= 4 && poly[0] === poly[poly.length - 2] && poly[1] === poly[poly.length - 1]) poly.length -= 2;
-  const m = poly.length >>> 1;
-  const keep: number[] = [];
-  for (let i = 0; i < n; i++) {
-    const x = pts[2 * i]!, y = pts[2 * i + 1]!;
-    let inside = m >= 3;
-    for (let k = 0; k < m && inside; k++) {
-      const k2 = k + 1 === m ? 0 : k + 1;
-      if (cross(poly[2 * k]!, poly[2 * k + 1]!, poly[2 * k2]!, poly[2 * k2 + 1]!, x, y) <= 0) inside = false;
-    }
-    if (!inside) keep.push(i);
-  }
-  keep.sort((a, b) => pts[2 * a]! - pts[2 * b]! || pts[2 * a + 1]! - pts[2 * b + 1]!);
-  const h: number[] = [];
-  const push = (i: number, floor: number) => {
-    const x = pts[2 * i]!, y = pts[2 * i + 1]!;
-    while (h.length >= 2 * (floor + 2) && cross(h[h.length - 4]!, h[h.length - 3]!, h[h.length - 2]!, h[h.length - 1]!, x, y) <= 0) h.length -= 2;
-    h.push(x, y);
-  };
-  for (const i of keep) push(i, 0);
-  const lower = h.length >>> 1;
-  for (let j = keep.length - 2; j >= 0; j--) push(keep[j]!, lower - 1);
-  h.length -= 2; // the last point repeats the first
-  if (h.length === 0 && keep.length > 0) h.push(pts[2 * keep[0]!]!, pts[2 * keep[0]! + 1]!);
-  return Float64Array.from(h);
+  return hullWith(pts, n, n ? octagonCorners(pts, n) : []);
 }
 
 export function polygonArea(p: Float64Array): number {
