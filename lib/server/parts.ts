@@ -151,11 +151,12 @@ export async function changeStatus(user: SessionUser, partId: number, input: Sta
   });
 }
 
-export async function printerFits(size: [number, number, number] | null, material: string): Promise<{ printers: number; fits: FitResult[] }> {
+export async function printerFits(size: [number, number, number] | null, material: string) {
   // Printers may not be set up yet (or their table not migrated): that is "no printers", not an error.
-  const beds = await listPrinterBeds().catch(() => []);
-  if (!size) return { printers: beds.length, fits: [] };
-  return { printers: beds.length, fits: fitPrinters(size, material, beds) };
+  const all = await listPrinterBeds().catch(() => []);
+  const beds = all.map((b) => ({ id: b.id, name: b.name, bedX: b.bedX, bedY: b.bedY, height: b.height, materials: b.materials }));
+  const fits: FitResult[] = size ? fitPrinters(size, material, beds) : [];
+  return { printers: beds.length, fits, beds };
 }
 
 /** Everything the part page shows. */
@@ -207,7 +208,8 @@ export async function getPartDetail(user: SessionUser, partId: number) {
     files,
     instances: instances.map((i) => ({ ...i, next: allowedTargets(i.status, user.role, editable) })),
     events,
-    fit,
+    fit: { printers: fit.printers, fits: fit.fits },
+    beds: fit.beds,
   };
 }
 

@@ -1,0 +1,25 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { PartView } from "@/components/bench/part-view";
+import type { PartDetailWire } from "@/lib/queries/parts";
+import { AppError } from "@/lib/server/errors";
+import { getPartDetail } from "@/lib/server/parts";
+import { requirePageUser } from "@/lib/server/session";
+
+export const metadata: Metadata = { title: "Part" };
+
+// Members see their own and shared parts; operators and admins read every part.
+export default async function PartPage({ params }: { params: Promise<{ partId: string }> }) {
+  const { partId: raw } = await params;
+  const user = await requirePageUser(undefined, `/bench/parts/${raw}`);
+  const id = Number(raw);
+  if (!Number.isSafeInteger(id) || id <= 0) notFound();
+  let detail;
+  try {
+    detail = await getPartDetail(user, id);
+  } catch (e) {
+    if (e instanceof AppError && e.code === "not_found") notFound();
+    throw e;
+  }
+  return <PartView id={id} initial={JSON.parse(JSON.stringify(detail)) as PartDetailWire} />;
+}

@@ -1,0 +1,173 @@
+"use client";
+import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import Link from "next/link";
+import { useEffect, useMemo, useState, type FormEvent } from "react";
+import { useMeshWorker } from "@/components/mesh/use-mesh-worker";
+import { Button } from "@/components/ui/button";
+import { Field, TextInput } from "@/components/ui/field";
+import { EmptyState, Notice } from "@/components/ui/notice";
+import { PageHeader } from "@/components/ui/page-header";
+import { problemEdges } from "@/components/viewer/problem-edges";
+import { Viewer } from "@/components/viewer/viewer";
+import type { AnalysisJson } from "@/lib/mesh/json";
+import type { ViewerArrays } from "@/lib/mesh/worker-protocol";
+import { sendJson } from "@/lib/queries/assemblies";
+import { fieldErrorsOf, formValues, TextArea } from "./form-bits";
+import { queryKeys } from "@/lib/queries/keys";
+import { partQuery, type PartDetailWire } from "@/lib/queries/parts";
+import { FileDrop } from "./file-drop";
+import { PartNumbers } from "./part-numbers";
+import { PartStatusPanel } from "./part-status";
+
+/** Fetches the stored mesh and reads it in the worker, so the page's thread never parses. */
+function useStoredMesh(fileId: number | null, units: "mm" | "in") {
+  const { analyze } = useMeshWorker();
+  const [state, setState] = useState<{ id: number; arrays?: ViewerArrays; error?: string } | null>(null);
+  useEffect(() => {
+    if (fileId === null) return;
+    let cancel = () => {};
+    let stop = false;
+    fetch(`/api/files/${fileId}`)
+      .then((r) => (r.ok ? r.arrayBuffer() : Promise.reject(new Error(`the file could not be fetched (${r.status})`))))
+      .then((buf) => {
+        if (stop) return;
+        const call = analyze(buf, { units });
+        cancel = call.cancel;
+        return call.promise.then((res) => !stop && setState({ id: fileId, arrays: res.arrays }));
+      })
+      .catch((e: Error) => !stop && setState({ id: fileId, error: e.message }));
+    return () => {
+      stop = true;
+      cancel();
+    };
+  }, [fileId, units, analyze]);
+  return state && state.id === fileId ? state : null;
+}
+
+function ViewerPanel({ d }: { d: PartDetailWire }) {
+  const cur = d.current;
+  const mesh = useStoredMesh(cur?.id ?? null, (cur?.units ?? "mm") as "mm" | "in");
+  const [showProblems, setShowProblems] = useState(false);
+  const fitting = d.fit.fits.filter((f) => f.fits);
+  const [bedId, setBedId] = useState<number | null>(null);
+  const beds = d.fit.fits;
+  const arrays = mesh?.arrays;
+  const edges = useMemo(() => (arrays ? problemEdges(arrays.positions) : new Float32Array()), [arrays]);
+  if (!cur) return <EmptyState title="No mesh yet">Upload an STL or 3MF below to see the part in 3D.</EmptyState>;
+  const bedPick = beds.find((b) => b.printerId === bedId) ?? fitting[0] ?? beds[0];
+  const bed = bedPick ? (d.beds.find((b) => b.id === bedPick.printerId) ?? null) : null;
+  return (
+    <div className="flex flex-col gap-2">
+      <div className="h-[26rem] overflow-hidden rounded-lg border border-rule" data-testid="part-viewer">
+        {mesh?.arrays ? (
+          <Viewer positions={mesh.arrays.positions} overhangMask={mesh.arrays.overhangMask} bed={bed ? { x: bed.bedX, y: bed.bedY, name: bed.name } : null} edges={edges} showProblems={showProblems} />
+        ) : mesh?.error ? (
+          <Notice tone="fail" title="The 3D view could not be shown.">{mesh.error}</Notice>
+        ) : (
+          <div role="status" className="flex h-full items-center justify-center text-sm text-ink-soft">Reading the mesh…</div>
+        )}
+      </div>
+      <div className="flex flex-wrap items-center gap-4 text-xs text-ink-soft">
+        <span><span aria-hidden className="mr-1 inline-block h-3 w-3 rounded-sm bg-clay align-middle" />Part</span>
+        <span><span aria-hidden className="mr-1 inline-block h-3 w-3 rounded-sm bg-overhang align-middle" />Overhang past {(cur.analysis as AnalysisJson).overhang_deg}°</span>
+        <span><span aria-hidden className="mr-1 inline-block h-3 w-3 rounded-sm bg-[#b9b6ae] align-middle" />Bed{bed ? ` of ${bed.name}, ${bed.bedX} × ${bed.bedY} mm, 10 mm grid` : " (no printer yet: a stand-in)"}</span>
+        <label className="flex items-center gap-1">
+          <input type="checkbox" checked={showProblems} onChange={(e) => setShowProblems(e.target.checked)} />
+          <span><span aria-hidden className="mr-1 inline-block h-0.5 w-4 bg-[#e0b400] align-middle" />Show open and non-manifold edges ({edges.length / 6})</span>
+        </label>
+        {beds.length > 1 ? (
+          <label className="flex items-center gap-1">
+            Bed
+            <select aria-label="Bed to draw" className="rounded border border-rule bg-sheet px-1" value={bedPick?.printerId} onChange={(e) => setBedId(Number(e.target.value))}>
+              {beds.map((b) => <option key={b.printerId} value={b.printerId}>{b.name}</option>)}
+            </select>
+          </label>
+        ) : null}
+      </div>
+    </div>
+  );
+}
+
+function EditForm({ d }: { d: PartDetailWire }) {
+  const qc = useQueryClient();
+  const [errors, setErrors] = useState<Record<string, string[]>>({});
+  const save = useMutation({
+    mutationFn: (v: Record<string, string>) => sendJson(`/api/parts/${d.part.id}`, "PATCH", { ...v, version: d.part.version }),
+    onSuccess: () => setErrors({}),
+    onError: (e) => setErrors(fieldErrorsOf(e)),
+    onSettled: () => Promise.all([qc.invalidateQueries({ queryKey: queryKeys.parts.all }), qc.invalidateQueries({ queryKey: queryKeys.assemblies.all })]),
+  });
+  const p = d.part;
+  const fields: [keyof typeof p, string, string?][] = [["name", "Name"], ["quantity", "Quantity needed", "number"], ["material", "Material"], ["colour", "Colour"], ["layerHeightMm", "Layer height (mm)", "number"], ["walls", "Walls", "number"], ["infillPercent", "Infill (%)", "number"]];
+  return (
+    <form key={p.version} noValidate aria-label="Part details" className="flex flex-col gap-3 rounded-lg border border-rule bg-sheet p-4" onSubmit={(e: FormEvent<HTMLFormElement>) => { e.preventDefault(); save.mutate(formValues(e.currentTarget)); }}>
+      <h3 className="font-semibold">Part details</h3>
+      {save.isError && !Object.keys(errors).length ? <Notice tone="fail" title={save.error.message} /> : null}
+      {save.isSuccess ? <Notice tone="ok" title="Saved." /> : null}
+      <div className="grid gap-3 sm:grid-cols-2">
+        {fields.map(([k, label, type]) => (
+          <Field key={k} label={label} name={`edit-${k}`} errors={errors[k]}>
+            <TextInput id={`edit-${k}`} name={k} type={type ?? "text"} step={k === "layerHeightMm" ? "0.01" : undefined} defaultValue={String(p[k] ?? "")} invalid={!!errors[k]} disabled={!d.canEdit} />
+          </Field>
+        ))}
+      </div>
+      <Field label="Notes" name="edit-notes" errors={errors.notes}>
+        <TextArea id="edit-notes" name="notes" defaultValue={p.notes} disabled={!d.canEdit} />
+      </Field>
+      {d.canEdit ? <div><Button type="submit" disabled={save.isPending}>{save.isPending ? "Saving…" : "Save part"}</Button></div> : null}
+    </form>
+  );
+}
+
+export function PartView({ id, initial }: { id: number; initial: PartDetailWire }) {
+  const q = useQuery({ ...partQuery(id), initialData: initial });
+  const d = q.data;
+  const a = d.current?.analysis as AnalysisJson | undefined;
+  return (
+    <>
+      <nav aria-label="Breadcrumb" className="mb-2 text-xs text-ink-soft">
+        <Link href="/bench" className="hover:underline">Bench</Link>
+        {d.trail.map((t) => (
+          <span key={t.id}> / <Link href={`/bench/assemblies/${t.id}`} className="hover:underline">{t.name}</Link></span>
+        ))}
+      </nav>
+      <PageHeader title={d.part.name} lead={`${d.part.quantity} needed · ${d.part.material}${d.part.colour ? `, ${d.part.colour}` : ""} · ${d.part.layerHeightMm} mm layers, ${d.part.walls} walls, ${d.part.infillPercent} % infill`} />
+      {q.isError ? <Notice tone="fail" title="The latest changes could not be loaded.">{q.error.message}</Notice> : null}
+      <div className="grid gap-8 lg:grid-cols-[1fr_22rem]">
+        <div className="flex flex-col gap-6">
+          <ViewerPanel d={d} />
+          {d.canEdit ? <FileDrop target={{ kind: "version", partId: id }} /> : null}
+          <PartStatusPanel d={d} />
+          <section aria-labelledby="history-h" className="flex flex-col gap-2">
+            <h2 id="history-h">Mesh history</h2>
+            {d.files.length === 0 ? <p className="text-sm text-ink-soft">No uploads yet.</p> : (
+              <ol className="flex flex-col gap-1 text-sm">
+                {d.files.map((f) => (
+                  <li key={f.id}>
+                    Version {f.versionNo}{f.id === d.current?.id ? " (current)" : ""} · <a className="underline" href={`/api/files/${f.id}`}>{f.originalName}</a> · {f.units === "in" ? "inches" : "mm"} · {f.uploadedBy} · {new Date(f.uploadedAt).toLocaleString("en-GB")}
+                  </li>
+                ))}
+              </ol>
+            )}
+          </section>
+        </div>
+        <aside className="flex flex-col gap-6">
+          <section aria-labelledby="numbers-h" className="flex flex-col gap-2">
+            <h2 id="numbers-h">Figures</h2>
+            {a ? <PartNumbers a={a} /> : <p className="text-sm text-ink-soft">Figures appear once a mesh is uploaded.</p>}
+          </section>
+          <section aria-labelledby="fits-h" className="flex flex-col gap-2">
+            <h2 id="fits-h">Printers it fits</h2>
+            {d.fit.printers === 0 ? <p className="text-sm text-ink-soft">No printers are set up in the workshop yet.</p> : !a ? <p className="text-sm text-ink-soft">Upload a mesh to check.</p> : (
+              <ul className="flex flex-col gap-1 text-sm">
+                {d.fit.fits.map((f) => <li key={f.printerId}>{f.fits ? "✓" : "✕"} {f.name}{f.fits ? "" : `: ${f.reason}`}</li>)}
+              </ul>
+            )}
+            {a && d.fit.printers > 0 && !d.fit.fits.some((f) => f.fits) ? <Notice tone="warn" title="It fits no printer as it stands." /> : null}
+          </section>
+          <EditForm d={d} />
+        </aside>
+      </div>
+    </>
+  );
+}
