@@ -44,6 +44,12 @@ export default defineConfig({
       ...(process.env as Record<string, string>),
       NEXTAUTH_URL: baseURL,
       DB_NAME: process.env.DB_NAME ?? "platewright_e2e",
+      // Nothing the server does may leave 127.0.0.1: the guard throws and logs every other target.
+      NODE_OPTIONS: `${process.env.NODE_OPTIONS ?? ""} --require ${process.cwd()}/tests/support/loopback-only.cjs`.trim(),
+      LOOPBACK_GUARD_LOG: `${process.cwd()}/.data/loopback-guard-e2e.log`,
+      MAIL_MODE: "fake",
+      PAYMENTS_MODE: "fake",
+      MAIL_OUTBOX_INTERVAL_MS: "1000",
     },
   },
 });

@@ -30,3 +30,4 @@ if [ -z "${NEXTAUTH_SECRET:-}" ]; then
 fi
 
 bash scripts/db.sh start
+if [ "${MAIL_MODE:-fake}" = fake ] || [ "${PAYMENTS_MODE:-fake}" = fake ]; then bash scripts/fakes.sh start; fi

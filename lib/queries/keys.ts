@@ -7,4 +7,7 @@ export const queryKeys = {
   quotes: { all: ["quotes"] as const, part: (input: unknown) => ["quotes", "part", input] as const },
   assemblies: { all: ["assemblies"] as const, list: () => ["assemblies", "list"] as const, detail: (id: number) => ["assemblies", "detail", id] as const },
   parts: { all: ["parts"] as const, mine: () => ["parts", "mine"] as const, detail: (id: number) => ["parts", "detail", id] as const },
+  people: { all: ["people"] as const, list: () => ["people", "list"] as const, invitations: () => ["people", "invitations"] as const },
+  mail: { all: ["mail"] as const, mailbox: () => ["mail", "mailbox"] as const, outbox: () => ["mail", "outbox"] as const, preferences: () => ["mail", "preferences"] as const },
+  ledger: { all: ["ledger"] as const, mine: () => ["ledger", "mine"] as const, balances: () => ["ledger", "balances"] as const },
 };

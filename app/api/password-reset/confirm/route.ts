@@ -1,0 +1,14 @@
+// POST /api/password-reset/confirm: set a new password from a reset link (public, single use).
+import { NextResponse } from "next/server";
+import { errorResponse, readJson } from "@/lib/server/errors";
+import { confirmPasswordReset } from "@/lib/server/password-reset";
+import { resetConfirmInput } from "@/lib/validation/mail";
+
+export async function POST(req: Request) {
+  try {
+    const input = resetConfirmInput.parse(await readJson(req));
+    return NextResponse.json(await confirmPasswordReset(input));
+  } catch (e) {
+    return errorResponse(e);
+  }
+}
