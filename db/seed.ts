@@ -5,7 +5,9 @@ import mysql from "mysql2/promise";
 import { fileURLToPath } from "node:url";
 import * as schema from "./schema";
 import { demoUsers, demoWorkshop } from "./seed-data";
+import { seedPrinters } from "./seed/printers";
 import { targetFromEnv, type DbTarget } from "./migrate";
+import { seedAssemblies } from "./seed/assemblies";
 
 export async function seed(target: DbTarget): Promise<{ usersAdded: number }> {
   const conn = await mysql.createConnection(target);
@@ -21,6 +23,8 @@ export async function seed(target: DbTarget): Promise<{ usersAdded: number }> {
         .values({ email: u.email, name: u.name, role: u.role, passwordHash: hash });
       usersAdded += res.affectedRows;
     }
+    await seedPrinters(d);
+    await seedAssemblies(d);
     return { usersAdded };
   } finally {
     await conn.end();
