@@ -5,3 +5,4 @@ export * from "./materials";
 export * from "./assemblies";
 export * from "./mail";
 export * from "./ledger";
+export * from "./plates";
