@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { PartView } from "@/components/bench/part-view";
+import { PartQuote } from "@/components/quote/part-quote";
 import type { PartDetailWire } from "@/lib/queries/parts";
 import { AppError } from "@/lib/server/errors";
 import { getPartDetail } from "@/lib/server/parts";
@@ -21,5 +22,10 @@ export default async function PartPage({ params }: { params: Promise<{ partId: s
     if (e instanceof AppError && e.code === "not_found") notFound();
     throw e;
   }
-  return <PartView id={id} initial={JSON.parse(JSON.stringify(detail)) as PartDetailWire} />;
+  return (
+    <>
+      <PartView id={id} initial={JSON.parse(JSON.stringify(detail)) as PartDetailWire} />
+      <PartQuote analysis={detail.current?.analysis} part={detail.part} />
+    </>
+  );
 }

@@ -1,0 +1,68 @@
+import { Notice } from "@/components/ui/notice";
+import { MATERIALS, MATERIAL_KEYS, type MaterialKey } from "@/lib/estimate/materials";
+import { QuotePanel } from "./quote-panel";
+
+/** A part's material as stored ("PLA", "Nylon (PA6)", "nylon" …) → a material family key, or null. */
+export function materialKeyOf(name: string): MaterialKey | null {
+  const n = name.trim().toLowerCase();
+  return MATERIAL_KEYS.find((k) => k === n || MATERIALS[k].name.toLowerCase() === n || MATERIALS[k].name.toLowerCase().startsWith(`${n} `)) ?? null;
+}
+
+/** The figures the mesh analysis stores that a quote needs (snake_case, as analysisToJson writes them). */
+interface StoredAnalysis {
+  size?: [number, number, number];
+  volume_mm3?: number;
+  volume_reliable?: boolean;
+  area_mm2?: number;
+  footprint_area_mm2?: number;
+}
+
+/**
+ * The quote on a part's page, from its current file's analysis and its print settings. Says why
+ * when there is nothing to price yet.
+ */
+export function PartQuote({
+  analysis,
+  part,
+}: {
+  analysis: unknown;
+  part: { material: string; layerHeightMm: number; walls: number; infillPercent: number };
+}) {
+  const a = (analysis ?? null) as StoredAnalysis | null;
+  const material = materialKeyOf(part.material);
+  const problem = !a
+    ? "Upload a mesh to see what this part costs."
+    : !a.volume_reliable || !a.volume_mm3 || !a.area_mm2 || !a.size
+      ? "The mesh is not closed, so its volume and price cannot be worked out. Repair it and upload it again."
+      : !material
+        ? `No price list for “${part.material}”.`
+        : null;
+  if (problem || !a || !material || !a.size) {
+    return (
+      <section className="mt-6" aria-label="Quote">
+        <Notice tone="info" title="No quote yet">
+          {problem}
+        </Notice>
+      </section>
+    );
+  }
+  return (
+    <div className="mt-6">
+      <QuotePanel
+        title="Quote for one copy"
+        input={{
+          volumeMm3: a.volume_mm3!,
+          areaMm2: a.area_mm2!,
+          heightMm: a.size[2],
+          widthMm: a.size[0],
+          depthMm: a.size[1],
+          footprintAreaMm2: a.footprint_area_mm2 || undefined,
+          layerHeightMm: part.layerHeightMm,
+          wallCount: part.walls,
+          infillPercent: part.infillPercent,
+          material,
+        }}
+      />
+    </div>
+  );
+}
