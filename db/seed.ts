@@ -8,6 +8,7 @@ import { demoUsers, demoWorkshop } from "./seed-data";
 import { seedPrinters } from "./seed/printers";
 import { targetFromEnv, type DbTarget } from "./migrate";
 import { seedAssemblies } from "./seed/assemblies";
+import { seedLedger } from "./seed/ledger";
 
 export async function seed(target: DbTarget): Promise<{ usersAdded: number }> {
   const conn = await mysql.createConnection(target);
@@ -25,6 +26,7 @@ export async function seed(target: DbTarget): Promise<{ usersAdded: number }> {
     }
     await seedPrinters(d);
     await seedAssemblies(d);
+    await seedLedger(d);
     return { usersAdded };
   } finally {
     await conn.end();
