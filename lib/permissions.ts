@@ -20,6 +20,10 @@ export const permissions = {
   "account:messages": ["member", "operator", "admin"],
   "ledger:own": ["member"],
   "ledger:admin": ["admin"],
+  "queue:send": ["member"],
+  "queue:manage": ["operator", "admin"],
+  "plates:view": ["member", "operator", "admin"],
+  "plates:act": ["operator", "admin"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof permissions;

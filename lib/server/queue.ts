@@ -1,0 +1,188 @@
+import "server-only";
+import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
+import { db } from "@/db";
+import { assemblies, materials, partFiles, partInstances, parts, plannerState, plateItems, plates, printers, queueEntries, spools, users } from "@/db/schema";
+import { MATERIALS } from "@/lib/estimate";
+import { can } from "@/lib/permissions";
+import { checkPartInstance } from "@/lib/plan/check-part";
+import { planWorkshop } from "@/lib/plan/plan";
+import type { PlanMetrics } from "@/lib/plan/schema";
+import { MEMBER_MAX_PRIORITY, type QueuePriorityInput, type QueueSendInput } from "@/lib/validation/queue";
+import { AppError } from "./errors";
+import { SPOOL_MARGIN } from "./materials";
+import { partAccess, requirePartEdit } from "./parts";
+import { ANY_NOZZLE, BED_MARGIN_MM, buildPlanningInput, densities, densityOf, estimateInstance, instanceGeometry, materialKeyOf, planPrinterShapes, timingPrinter, type PartForEstimate } from "./planner";
+import { currentPricing, makeQuote, moveInstances, plateLabel } from "./plates";
+import type { SessionUser } from "./session";
+
+const invalid = (message: string, field: string) => new AppError("invalid", message, { [field]: [message] });
+
+/**
+ * A member sends copies of a part to the workshop. Each is checked before it is accepted: the part
+ * has a mesh, some printer takes its material and holds its footprint and height, and a spool of
+ * that material holds at least one copy with spare. Copies not yet in the workshop go first, ready before drafted.
+ */
+export async function sendToQueue(user: SessionUser, input: QueueSendInput): Promise<{ queued: number; instanceIds: number[]; printers: string[]; gramsEach: number; minutesEach: number }> {
+  if (!can(user.role, "queue:send")) throw new AppError("forbidden", "Members send their parts to the workshop; the workshop plans them.");
+  await requirePartEdit(user, input.partId);
+  if (input.priority > MEMBER_MAX_PRIORITY) throw invalid("Members may ask for normal or soon; the workshop sets rush priorities.", "priority");
+  const [part] = await db()
+    .select({ name: parts.name, material: parts.material, layerHeightMm: parts.layerHeightMm, walls: parts.walls, infillPercent: parts.infillPercent, ownerId: assemblies.ownerId, fileId: partFiles.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, analysis: partFiles.analysis })
+    .from(parts)
+    .innerJoin(assemblies, eq(assemblies.id, parts.assemblyId))
+    .leftJoin(partFiles, eq(partFiles.id, parts.currentFileId))
+    .where(eq(parts.id, input.partId));
+  if (!part) throw new AppError("not_found", "No such part, or it is not shared with you.");
+  if (part.fileId === null || part.sizeX === null || part.sizeY === null || part.sizeZ === null) throw invalid("This part has no mesh yet: upload one before sending it to the workshop.", "partId");
+  const type = materialKeyOf(part.material);
+  if (!type) throw invalid(`The workshop does not print ${part.material}: pick one of ${Object.values(MATERIALS).map((m) => m.name).join(", ")}.`, "partId");
+  const geo = instanceGeometry({ sizeX: part.sizeX, sizeY: part.sizeY, sizeZ: part.sizeZ });
+  const { all, shapes } = await planPrinterShapes();
+  const check = checkPartInstance({ footprint: geo.footprint, height: geo.height, material: type, nozzle: ANY_NOZZLE }, shapes, BED_MARGIN_MM);
+  if (!check.ok) throw invalid(`No printer here can take this part: ${check.reason.replace(/\b(pla|petg|abs|asa|tpu|nylon|pc)\b/g, (m) => m.toUpperCase())}.`, "partId");
+  const able = all.filter((p) => check.printers.includes(String(p.id)));
+  const est = estimateInstance({ ...part, sizeZ: geo.height, analysis: (part.analysis ?? {}) as PartForEstimate["analysis"] }, timingPrinter(able, type)!, densityOf(await densities(), type));
+  const [stock] = await db().select({ grams: sql<number | null>`MAX(${spools.gramsRemaining})` }).from(spools).innerJoin(materials, eq(materials.id, spools.materialId)).where(eq(materials.type, type));
+  const need = est.grams * SPOOL_MARGIN;
+  if (Number(stock?.grams ?? 0) < need) throw invalid(`The workshop has no ${MATERIALS[type].name} spool holding the ${Math.ceil(need)} g one copy needs. Ask the workshop to stock it.`, "partId");
+  const ids = await db().transaction(async (tx) => {
+    const free = await tx
+      .select({ id: partInstances.id, status: partInstances.status })
+      .from(partInstances)
+      .where(and(eq(partInstances.partId, input.partId), inArray(partInstances.status, ["ready", "drafted"])))
+      .orderBy(desc(sql`${partInstances.status} = 'ready'`), asc(partInstances.copyNo))
+      .for("update");
+    if (free.length < input.quantity) throw invalid(free.length ? `Only ${free.length} of this part's copies are not yet in the workshop.` : "Every copy of this part is already in the workshop.", "quantity");
+    const take = free.slice(0, input.quantity);
+    const ready = take.filter((t) => t.status === "ready").map((t) => t.id);
+    const drafted = take.filter((t) => t.status === "drafted").map((t) => t.id);
+    await moveInstances(tx, ready, "ready", ["queued"], user.id, "Sent to the workshop");
+    await moveInstances(tx, drafted, "drafted", ["ready", "queued"], user.id, "Sent to the workshop");
+    const rows = take.map((t) => ({ instanceId: t.id, memberId: part.ownerId, sentBy: user.id, wishedDate: input.wishedDate, priority: input.priority }));
+    await tx.insert(queueEntries).values(rows).onDuplicateKeyUpdate({ set: { wishedDate: input.wishedDate, priority: input.priority, sentBy: user.id, sentAt: new Date(), version: sql`${queueEntries.version} + 1` } });
+    return take.map((t) => t.id);
+  });
+  return { queued: ids.length, instanceIds: ids, printers: able.map((p) => p.name), gramsEach: est.grams, minutesEach: est.minutes };
+}
+
+interface Unplaced {
+  instanceId: number;
+  reason: string;
+}
+
+async function lastRun() {
+  const [s] = await db().select({ at: plannerState.lastRunAt, metrics: plannerState.lastMetrics, unplaced: plannerState.unplaced }).from(plannerState).where(eq(plannerState.id, 1));
+  return { at: s?.at ?? null, metrics: (s?.metrics ?? null) as PlanMetrics | null, unplaced: (s?.unplaced ?? []) as Unplaced[] };
+}
+
+/** The waiting list: queued copies not on any plate, with the last plan's reason when it left them out. */
+export async function listWaiting(user: SessionUser) {
+  if (!can(user.role, "queue:manage")) throw new AppError("forbidden", "Only operators and admins see the whole queue.");
+  const rows = await db()
+    .select({ entryId: queueEntries.id, version: queueEntries.version, instanceId: partInstances.id, copyNo: partInstances.copyNo, reprints: partInstances.reprints, partId: parts.id, partName: parts.name, material: parts.material, colour: parts.colour, member: users.name, priority: queueEntries.priority, wishedDate: queueEntries.wishedDate, sentAt: queueEntries.sentAt })
+    .from(queueEntries)
+    .innerJoin(partInstances, eq(partInstances.id, queueEntries.instanceId))
+    .innerJoin(parts, eq(parts.id, partInstances.partId))
+    .innerJoin(users, eq(users.id, queueEntries.memberId))
+    .where(eq(partInstances.status, "queued"))
+    .orderBy(desc(queueEntries.priority), asc(queueEntries.sentAt), asc(partInstances.id));
+  const run = await lastRun();
+  const why = new Map(run.unplaced.map((u) => [u.instanceId, u.reason]));
+  return { lastRunAt: run.at, metrics: run.metrics, waiting: rows.map((r) => ({ ...r, reason: why.get(r.instanceId) ?? null })) };
+}
+
+export async function setPriority(user: SessionUser, entryId: number, input: QueuePriorityInput): Promise<{ version: number }> {
+  if (!can(user.role, "queue:manage")) throw new AppError("forbidden", "Only operators and admins change priorities.");
+  const [res] = await db()
+    .update(queueEntries)
+    .set({ priority: input.priority, version: sql`${queueEntries.version} + 1` })
+    .where(and(eq(queueEntries.id, entryId), eq(queueEntries.version, input.version)));
+  if (res.affectedRows === 0) {
+    const [e] = await db().select({ id: queueEntries.id }).from(queueEntries).where(eq(queueEntries.id, entryId));
+    if (!e) throw new AppError("not_found", "There is no such queue entry.");
+    throw new AppError("conflict", "Someone changed this entry since you opened it. Reload to see its priority.");
+  }
+  return { version: input.version + 1 };
+}
+
+/**
+ * Re-plan: plates that have not started are dropped and everything queued or on them is planned
+ * again with lib/plan. Re-plans are serialised on the planner row; the unique active-instance
+ * index makes a second live plate for any instance impossible even so.
+ */
+export async function replan(user: SessionUser, now = new Date()): Promise<{ plates: number; placed: number; unplaced: Unplaced[]; metrics: PlanMetrics }> {
+  if (!can(user.role, "queue:manage")) throw new AppError("forbidden", "Only operators and admins re-plan.");
+  await db().insert(plannerState).ignore().values({ id: 1 });
+  return db().transaction(async (tx) => {
+    await tx.select({ id: plannerState.id }).from(plannerState).where(eq(plannerState.id, 1)).for("update");
+    const old = await tx.select({ id: plates.id }).from(plates).where(eq(plates.status, "planned")).for("update");
+    const oldIds = old.map((o) => o.id);
+    const wasPlated = new Set(oldIds.length ? (await tx.select({ i: plateItems.instanceId }).from(plateItems).where(inArray(plateItems.plateId, oldIds))).map((r) => r.i) : []);
+    if (oldIds.length) await tx.delete(plates).where(inArray(plates.id, oldIds));
+    const input = await buildPlanningInput(tx, now);
+    if ("error" in input) throw new AppError("invalid", input.error);
+    const out = planWorkshop(input.instance);
+    const byKey = new Map(input.queue.map((q) => [q.key, q]));
+    const nowPlated = new Set<number>();
+    for (const plate of out.plates) {
+      const printerId = Number(plate.printer);
+      const its = plate.items.map((it) => ({ it, q: byKey.get(it.part)! }));
+      const price = await currentPricing(tx, printerId, its[0]!.q.type);
+      const quote = makeQuote(its.map(({ q }) => ({ instanceId: q.instanceId, memberId: q.memberId, grams: q.grams, minutes: q.minutes })), price.printer, price.material, price.feeCents, price.currency);
+      const [res] = await tx
+        .insert(plates)
+        .values({ printerId, material: plate.material, colour: plate.color, plannedStart: new Date(plate.start), plannedEnd: new Date(plate.end), runsUnattended: plate.runs_unattended ? 1 : 0, caution: plate.caution, estimatedMinutes: quote.totalMinutes, estimatedGrams: quote.totalGrams, quote, quotedAt: now })
+        .$returningId();
+      const plateId = res!.id;
+      await tx.insert(plateItems).values(its.map(({ it, q }) => ({ plateId, instanceId: q.instanceId, activeInstanceId: q.instanceId, memberId: q.memberId, x: it.x, y: it.y, rotated: it.rotated ? 1 : 0, sizeX: q.sizeX, sizeY: q.sizeY, sizeZ: q.sizeZ, minutes: q.minutes, grams: q.grams })));
+      const fresh = its.map(({ q }) => q.instanceId).filter((i) => !wasPlated.has(i));
+      await moveInstances(tx, fresh, "queued", ["plated"], user.id, `Planned on ${plateLabel(plateId)}`);
+      for (const { q } of its) nowPlated.add(q.instanceId);
+    }
+    const dropped = [...wasPlated].filter((i) => !nowPlated.has(i));
+    await moveInstances(tx, dropped, "plated", ["queued"], user.id, "Re-planned: waiting for a later plate");
+    const unplaced: Unplaced[] = [...input.refused, ...out.unplaced.map((u) => ({ instanceId: byKey.get(u.part)!.instanceId, reason: u.reason }))];
+    await tx.update(plannerState).set({ lastRunAt: now, lastRunBy: user.id, lastMetrics: out.metrics, unplaced }).where(eq(plannerState.id, 1));
+    return { plates: out.plates.length, placed: nowPlated.size, unplaced, metrics: out.metrics };
+  });
+}
+
+/**
+ * For the member's part page: each copy's queue details, the plate it is on and its expected
+ * finish, and where a printed copy waits. Anyone who may read the part may see it.
+ */
+export async function partSchedule(user: SessionUser, partId: number) {
+  await partAccess(user, partId);
+  const d = db();
+  const inst = await d
+    .select({ instanceId: partInstances.id, copyNo: partInstances.copyNo, status: partInstances.status, reprints: partInstances.reprints, priority: queueEntries.priority, wishedDate: queueEntries.wishedDate })
+    .from(partInstances)
+    .leftJoin(queueEntries, eq(queueEntries.instanceId, partInstances.id))
+    .where(eq(partInstances.partId, partId))
+    .orderBy(asc(partInstances.copyNo));
+  const ids = inst.map((i) => i.instanceId);
+  const onPlates = ids.length
+    ? await d
+        .select({ instanceId: plateItems.instanceId, active: plateItems.activeInstanceId, plateId: plates.id, status: plates.status, plannedEnd: plates.plannedEnd, endedAt: plates.endedAt, shelfLabel: plates.shelfLabel, runsUnattended: plates.runsUnattended, printer: printers.name })
+        .from(plateItems)
+        .innerJoin(plates, eq(plates.id, plateItems.plateId))
+        .innerJoin(printers, eq(printers.id, plates.printerId))
+        .where(inArray(plateItems.instanceId, ids))
+        .orderBy(desc(plates.id))
+    : [];
+  return inst.map((i) => {
+    const live = onPlates.find((p) => p.instanceId === i.instanceId && p.active !== null);
+    const done = onPlates.find((p) => p.instanceId === i.instanceId && p.status === "finished");
+    return {
+      ...i,
+      plateId: live?.plateId ?? done?.plateId ?? null,
+      printer: live?.printer ?? done?.printer ?? null,
+      expectedFinish: live ? live.plannedEnd : null,
+      finishedAt: !live && done ? done.endedAt : null,
+      shelfLabel: !live && done && (i.status === "printed" || i.status === "accepted") ? done.shelfLabel : null,
+      runsUnattended: live ? live.runsUnattended === 1 : false,
+    };
+  });
+}
+
+export type PartScheduleRow = Awaited<ReturnType<typeof partSchedule>>[number];
