@@ -255,7 +255,7 @@ export async function getAssemblyDetail(user: SessionUser, id: number) {
     .where(eq(assemblies.id, id));
   if (!head) throw new AppError("not_found", "No such assembly, or it is not shared with you.");
   const partRows = await d
-    .select({ ...partColumns, size: sql<string | null>`JSON_EXTRACT(${partFiles.analysis}, '$.size')` })
+    .select({ ...partColumns, size: sql<unknown>`JSON_EXTRACT(${partFiles.analysis}, '$.size')` })
     .from(parts)
     .leftJoin(partFiles, eq(partFiles.id, parts.currentFileId))
     .where(inArray(parts.assemblyId, ids))
@@ -267,7 +267,8 @@ export async function getAssemblyDetail(user: SessionUser, id: number) {
   const beds = await listPrinterBeds().catch(() => []);
   const partsOut = partRows.map((p) => {
     const mine = inst.filter((i) => i.partId === p.id);
-    const size = p.size ? (JSON.parse(p.size) as [number, number, number]) : null;
+    // The driver may hand JSON_EXTRACT back parsed or as text, depending on the column type it reports.
+    const size = (typeof p.size === "string" ? JSON.parse(p.size) : p.size ?? null) as [number, number, number] | null;
     const fits = size && beds.length ? fitPrinters(size, p.material, beds).filter((f) => f.fits).length : null;
     const { size: _s, ...rest } = p;
     return { ...rest, size, statuses: mine.map((i) => i.status), reprintsPending: mine.filter((i) => i.reprints > 0 && i.status !== "printed" && i.status !== "accepted").length, fittingPrinters: fits };

@@ -9,7 +9,7 @@ import { meshBlobs, partFiles, users, workshopSettings } from "@/db/schema";
 import { analysisToJson, analyzeBytes, readMesh, write3mf, writeStl } from "@/lib/mesh";
 import { createAssembly, shareAssembly } from "@/lib/server/assemblies";
 import { AppError } from "@/lib/server/errors";
-import { createPart, getPartDetail } from "@/lib/server/parts";
+import { createPart, getAssemblyDetail, getPartDetail } from "@/lib/server/parts";
 import type { SessionUser } from "@/lib/server/session";
 import { setBlobStore } from "@/lib/server/storage";
 import { receiveUpload } from "@/lib/server/uploads";
@@ -45,7 +45,7 @@ const rows = async () => ({
   files: (await db().select({ n: count() }).from(partFiles))[0]!.n,
 });
 
-let owner: SessionUser, reader: SessionUser, partA: number, partB: number;
+let owner: SessionUser, reader: SessionUser, partA: number, partB: number, assemblyId: number;
 
 beforeAll(async () => {
   setBlobStore(undefined);
@@ -53,6 +53,7 @@ beforeAll(async () => {
   owner = await person("owner-u@test.example");
   reader = await person("reader-u@test.example");
   const { id: a } = await createAssembly(owner, { name: "Tripod head", description: "" });
+  assemblyId = a;
   partA = (await createPart(owner, a, { name: "Clamp", quantity: 1, material: "PLA", colour: "", notes: "" })).id;
   partB = (await createPart(owner, a, { name: "Clamp copy", quantity: 1, material: "PLA", colour: "", notes: "" })).id;
   await shareAssembly(owner, a, { email: reader.email, access: "read" });
@@ -83,6 +84,9 @@ describe("uploads", () => {
     const det = await getPartDetail(owner, partA);
     expect(det.files.map((f) => f.versionNo)).toEqual([2, 1]);
     expect(det.current?.id).toBe(again.fileId);
+    // The assembly page reads the current mesh's size back out of the stored analysis.
+    const tree = await getAssemblyDetail(owner, assemblyId);
+    expect(tree.parts.find((p) => p.id === partA)?.size).toEqual(first.analysis.size);
   });
 
   it("keeps the server's analysis equal to lib/mesh's, and a 20 × 30 × 40 box's volume equal to its closed form", async () => {
