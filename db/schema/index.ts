@@ -6,3 +6,4 @@ export * from "./assemblies";
 export * from "./mail";
 export * from "./ledger";
 export * from "./plates";
+export * from "./maintenance";
