@@ -102,7 +102,7 @@ export function* analysisSteps(segs: Segment[], triangles: number, opts: Analysi
   if (triangles === 0) throw new MeshReadError("NO_TRIANGLES", "the mesh has no triangles");
   const pass: PassResult = yield* passSteps(segs, triangles, o);
   const tol = o.weldTolerance ?? defaultWeldTolerance(pass.bbox.min, pass.bbox.max);
-  const w = new Welder(triangles, pass.bbox.min, tol);
+  const w = new Welder(triangles, pass.bbox.min, pass.bbox.max, tol);
   let done = 0;
   for (const s of segs) {
     s.load?.();

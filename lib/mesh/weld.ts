@@ -2,9 +2,13 @@ import type { IndexedMesh, TriangleSoup } from "./types";
 
 /**
  * Welding: vertices whose coordinates fall in the same cell of a grid of pitch `tolerance` become
- * one. Cells are hashed into an open-addressing table of Int32 vertex ids (linear probing), the
- * quantised cell kept beside each vertex so a probe compares three integers. Bit-identical
- * coordinates always weld; two points closer than the pitch but in neighbouring cells do not.
+ * one. Coordinates are quantised once to non-negative integer cells (offset from the bounding-box
+ * minimum, rounded half up), hashed with a multiply-xorshift mix into a power-of-two open-addressing
+ * table of Int32 vertex ids + 1 (0 = empty, linear probing); each vertex keeps its three cell ints,
+ * so a probe compares integers, never floats. Bit-identical coordinates always weld; two points
+ * closer than the pitch but in neighbouring cells do not. When the model spans more than 2^30
+ * cells along an axis the pitch is widened to fit (so cells stay exact int32 and duplicates still
+ * weld). Vertex ids follow first appearance in the input.
  */
 export class Welder {
   private readonly inv: number;
@@ -17,15 +21,23 @@ export class Welder {
   vertices: Float32Array;
   count = 0;
   readonly indices: Uint32Array;
+  /**
+   * A direct-mapped cache of recently seen cells' ids sits in front of the big table: consecutive
+   * triangles share vertices, so most lookups hit it (128 KB, in cache) and never touch the big
+   * table, whose random accesses cost a cache miss each. A hit is confirmed against q.
+   */
+  private readonly recent = new Int32Array(RECENT).fill(-1);
 
-  constructor(triangles: number, origin: [number, number, number], tolerance: number) {
-    this.inv = 1 / tolerance;
-    [this.ox, this.oy, this.oz] = origin;
+  constructor(triangles: number, min: readonly number[], max: readonly number[], tolerance: number) {
+    const span = Math.max(max[0]! - min[0]!, max[1]! - min[1]!, max[2]! - min[2]!, 0);
+    const pitch = Math.max(tolerance, span / 2 ** 30);
+    this.inv = 1 / pitch;
+    this.ox = min[0]!; this.oy = min[1]!; this.oz = min[2]!;
     // Closed meshes have about half as many vertices as triangles; start there and grow.
     const cap = Math.max(16, (triangles >>> 1) + 16);
     let size = 32;
     while (size < cap * 2) size *= 2;
-    this.table = new Int32Array(size).fill(-1);
+    this.table = new Int32Array(size);
     this.mask = size - 1;
     this.q = new Int32Array(cap * 3);
     this.vertices = new Float32Array(cap * 3);
@@ -42,64 +54,61 @@ export class Welder {
     this.vertices = v;
     if (this.table.length < cap * 2) {
       const size = this.table.length * 2;
-      const t = new Int32Array(size).fill(-1);
+      const t = new Int32Array(size);
       const m = size - 1;
       for (let id = 0; id < this.count; id++) {
         let h = hash3(q[3 * id]!, q[3 * id + 1]!, q[3 * id + 2]!) & m;
-        while (t[h] !== -1) h = (h + 1) & m;
-        t[h] = id;
+        while (t[h] !== 0) h = (h + 1) & m;
+        t[h] = id + 1;
       }
       this.table = t;
       this.mask = m;
     }
   }
 
-  /**
-   * A small direct-mapped cache of recently seen cells sits in front of the big table: consecutive
-   * triangles share vertices, so most lookups hit it and never touch the big table (whose random
-   * accesses cost a cache miss each).
-   */
-  private readonly recent = new Int32Array(RECENT * 4).fill(-1);
-
   /** Weld `count` triangles read from f at base + k·stride (9 floats each); triangle = tri0 + k·triStep. */
   addRange(f: Float32Array, base: number, stride: number, count: number, tri0: number, triStep: number): void {
     const inv = this.inv, ox = this.ox, oy = this.oy, oz = this.oz, idx = this.indices, rc = this.recent;
-    let table = this.table, mask = this.mask, q = this.q, verts = this.vertices;
-    for (let k = 0, p = base, t = tri0; k < count; k++, p += stride, t += triStep) {
+    let table = this.table, mask = this.mask, q = this.q, verts = this.vertices, n = this.count;
+    for (let k = 0, p = base, o = 3 * tri0; k < count; k++, p += stride, o += 3 * triStep) {
       for (let c = 0; c < 3; c++) {
         const x = f[p + 3 * c]!, y = f[p + 3 * c + 1]!, z = f[p + 3 * c + 2]!;
-        const qx = Math.round((x - ox) * inv), qy = Math.round((y - oy) * inv), qz = Math.round((z - oz) * inv);
+        // Offsets from the minimum are ≥ 0, so truncating v + 0.5 rounds half up (as Math.round).
+        const qx = ((x - ox) * inv + 0.5) | 0, qy = ((y - oy) * inv + 0.5) | 0, qz = ((z - oz) * inv + 0.5) | 0;
         const hh = hash3(qx, qy, qz);
-        const r4 = ((hh >>> 17) & (RECENT - 1)) << 2;
-        if (rc[r4] === qx && rc[r4 + 1] === qy && rc[r4 + 2] === qz && rc[r4 + 3]! >= 0) {
-          idx[3 * t + c] = rc[r4 + 3]!;
+        const r = hh >>> RECENT_SHIFT;
+        let id = rc[r]!;
+        if (id >= 0 && q[3 * id] === qx && q[3 * id + 1] === qy && q[3 * id + 2] === qz) {
+          idx[o + c] = id;
           continue;
         }
         let h = hh & mask;
-        let id = table[h]!;
-        while (id !== -1) {
-          const r = 3 * id;
-          if (q[r] === qx && q[r + 1] === qy && q[r + 2] === qz) break;
+        let e = table[h]!;
+        while (e !== 0) {
+          const j = 3 * e - 3;
+          if (q[j] === qx && q[j + 1] === qy && q[j + 2] === qz) break;
           h = (h + 1) & mask;
-          id = table[h]!;
+          e = table[h]!;
         }
-        if (id === -1) {
-          if (3 * this.count + 3 > q.length) {
+        if (e === 0) {
+          if (3 * n + 3 > q.length) {
+            this.count = n;
             this.grow();
             table = this.table; mask = this.mask; q = this.q; verts = this.vertices;
             h = hh & mask;
-            while (table[h] !== -1) h = (h + 1) & mask;
+            while (table[h] !== 0) h = (h + 1) & mask;
           }
-          id = this.count++;
-          table[h] = id;
-          const r = 3 * id;
-          q[r] = qx; q[r + 1] = qy; q[r + 2] = qz;
-          verts[r] = x; verts[r + 1] = y; verts[r + 2] = z;
-        }
-        rc[r4] = qx; rc[r4 + 1] = qy; rc[r4 + 2] = qz; rc[r4 + 3] = id;
-        idx[3 * t + c] = id;
+          id = n++;
+          table[h] = id + 1;
+          const j = 3 * id;
+          q[j] = qx; q[j + 1] = qy; q[j + 2] = qz;
+          verts[j] = x; verts[j + 1] = y; verts[j + 2] = z;
+        } else id = e - 1;
+        rc[r] = id;
+        idx[o + c] = id;
       }
     }
+    this.count = n;
   }
 
   result(): IndexedMesh {
@@ -107,7 +116,9 @@ export class Welder {
   }
 }
 
-const RECENT = 1 << 15;
+const RECENT_BITS = 15;
+const RECENT = 1 << RECENT_BITS;
+const RECENT_SHIFT = 32 - RECENT_BITS;
 
 function hash3(x: number, y: number, z: number): number {
   let h = Math.imul(x, 0x9e3779b1) ^ Math.imul(y, 0x85ebca77) ^ Math.imul(z, 0xc2b2ae3d);
@@ -138,7 +149,7 @@ export function weld(soup: TriangleSoup, tolerance?: number): IndexedMesh {
   const n = Math.floor(soup.positions.length / 9);
   if (n === 0) return { vertices: new Float32Array(0), indices: new Uint32Array(0) };
   const { min, max } = soupBounds(soup.positions);
-  const w = new Welder(n, min, tolerance ?? defaultWeldTolerance(min, max));
+  const w = new Welder(n, min, max, tolerance ?? defaultWeldTolerance(min, max));
   w.addRange(soup.positions, 0, 9, n, 0, 1);
   return w.result();
 }
