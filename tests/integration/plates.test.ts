@@ -64,7 +64,8 @@ async function boxPart(owner: SessionUser, name: string, w: number, d: number, h
 const send = (u: SessionUser, partId: number, quantity: number) => sendToQueue(u, queueSendInput.parse({ partId, quantity, wishedDate: null, priority: 0 }));
 
 async function livePlates() {
-  return db().select({ id: plates.id, version: plates.version, status: plates.status, quote: plates.quote }).from(plates).where(inArray(plates.status, ["planned", "printing"]));
+  // Only this file's printer: other test files share the database.
+  return db().select({ id: plates.id, version: plates.version, status: plates.status, quote: plates.quote }).from(plates).where(and(eq(plates.printerId, printerId), inArray(plates.status, ["planned", "printing"])));
 }
 
 beforeAll(async () => {
@@ -120,8 +121,9 @@ describe("re-planning", () => {
       .groupBy(plateItems.instanceId)
       .having(sql`COUNT(*) > 1`);
     expect(dup).toEqual([]);
-    const plated = await db().select({ id: partInstances.id }).from(partInstances).where(eq(partInstances.status, "plated"));
-    const active = await db().select({ id: plateItems.activeInstanceId }).from(plateItems).where(isNotNull(plateItems.activeInstanceId));
+    const mine = inArray(plateItems.memberId, [member.id, member2.id]);
+    const plated = await db().select({ id: partInstances.id }).from(partInstances).innerJoin(plateItems, eq(plateItems.instanceId, partInstances.id)).where(and(eq(partInstances.status, "plated"), mine, isNotNull(plateItems.activeInstanceId)));
+    const active = await db().select({ id: plateItems.activeInstanceId }).from(plateItems).where(and(isNotNull(plateItems.activeInstanceId), mine));
     expect(active.map((a) => a.id).sort()).toEqual(plated.map((p) => p.id).sort());
     expect(plated.length).toBe(6);
   });
@@ -168,7 +170,7 @@ describe("plate actions", () => {
     expect(got.map((c) => c.amount)).toEqual(expected);
     const printed = await db().select({ s: partInstances.status }).from(partInstances).where(inArray(partInstances.id, (await db().select({ i: plateItems.instanceId }).from(plateItems).where(eq(plateItems.plateId, p!.id))).map((x) => x.i)));
     expect(printed.every((x) => x.s === "printed")).toBe(true);
-    const mails = await db().select({ kind: mailOutbox.kind, userId: mailOutbox.userId }).from(mailOutbox).where(eq(mailOutbox.kind, "part_printed"));
+    const mails = await db().select({ kind: mailOutbox.kind, userId: mailOutbox.userId }).from(mailOutbox).where(and(eq(mailOutbox.kind, "part_printed"), inArray(mailOutbox.userId, [member.id, member2.id])));
     expect(new Set(mails.map((m) => m.userId))).toEqual(new Set(members));
     const active = await db().select({ n: sql<number>`COUNT(*)` }).from(plateItems).where(and(eq(plateItems.plateId, p!.id), isNotNull(plateItems.activeInstanceId)));
     expect(Number(active[0]!.n)).toBe(0);
