@@ -1,12 +1,6 @@
 import { Notice } from "@/components/ui/notice";
-import { MATERIALS, MATERIAL_KEYS, type MaterialKey } from "@/lib/estimate/materials";
+import { materialKeyOf } from "@/lib/validation/printers";
 import { QuotePanel } from "./quote-panel";
-
-/** A part's material as stored ("PLA", "Nylon (PA6)", "nylon" …) → a material family key, or null. */
-export function materialKeyOf(name: string): MaterialKey | null {
-  const n = name.trim().toLowerCase();
-  return MATERIAL_KEYS.find((k) => k === n || MATERIALS[k].name.toLowerCase() === n || MATERIALS[k].name.toLowerCase().startsWith(`${n} `)) ?? null;
-}
 
 /** The figures the mesh analysis stores that a quote needs (snake_case, as analysisToJson writes them). */
 interface StoredAnalysis {

@@ -12,9 +12,13 @@ import {
 } from "@/lib/estimate";
 import { can } from "@/lib/permissions";
 import type { MaterialType } from "@/db/schema";
-import type { QuoteAssemblyInput, QuotePartInput } from "@/lib/validation/printers";
+import { inArray } from "drizzle-orm";
+import { db } from "@/db";
+import { partFiles } from "@/db/schema";
+import { materialKeyOf, type QuoteAssemblyInput, type QuotePartInput } from "@/lib/validation/printers";
 import { AppError } from "./errors";
 import { materialPrices } from "./materials";
+import { getAssemblyDetail } from "./parts";
 import { listPrinters, type Printer } from "./printers";
 import type { SessionUser } from "./session";
 import { getWorkshopSettings } from "./workshop";
@@ -150,4 +154,64 @@ export async function quoteAssemblyParts(user: SessionUser, input: QuoteAssembly
     choices.push({ label, printerName: best.printerName, materialName: q.material.name, grams: best.grams, minutes: best.minutes });
   }
   return { ...quoteAssembly(lines, settings.plateFeeCents), currency: settings.currency, choices };
+}
+
+export interface StoredAnalysis {
+  size?: [number, number, number];
+  volume_mm3?: number;
+  volume_reliable?: boolean;
+  area_mm2?: number;
+  footprint_area_mm2?: number;
+}
+
+/** A stored part as the quote needs it, or the reason it cannot be priced yet. */
+export function partQuoteInput(
+  analysis: unknown,
+  part: { material: string; layerHeightMm: number; walls: number; infillPercent: number },
+): { input: QuotePartInput } | { problem: string } {
+  const a = (analysis ?? null) as StoredAnalysis | null;
+  if (!a) return { problem: "no mesh uploaded" };
+  if (!a.volume_reliable || !a.volume_mm3 || !a.area_mm2 || !a.size) return { problem: "mesh not closed" };
+  const material = materialKeyOf(part.material);
+  if (!material) return { problem: `no price list for ${part.material}` };
+  return {
+    input: {
+      volumeMm3: a.volume_mm3,
+      areaMm2: a.area_mm2,
+      heightMm: a.size[2],
+      widthMm: a.size[0],
+      depthMm: a.size[1],
+      footprintAreaMm2: a.footprint_area_mm2 || undefined,
+      layerHeightMm: part.layerHeightMm,
+      wallCount: part.walls,
+      infillPercent: part.infillPercent,
+      supports: false,
+      material,
+    },
+  };
+}
+
+/**
+ * The quote of a stored assembly (and its sub-assemblies) for someone who may read it: each
+ * priced part on its cheapest fitting printer × quantity, the fee once; parts that cannot be
+ * priced yet are listed with the reason.
+ */
+export async function quoteStoredAssembly(user: SessionUser, assemblyId: number) {
+  const detail = await getAssemblyDetail(user, assemblyId); // checks access
+  const fileIds = detail.parts.map((p) => p.currentFileId).filter((x): x is number => x !== null);
+  const files = fileIds.length ? await db().select({ id: partFiles.id, analysis: partFiles.analysis }).from(partFiles).where(inArray(partFiles.id, fileIds)) : [];
+  const parts: QuoteAssemblyInput["parts"] = [];
+  const unpriced: { name: string; reason: string }[] = [];
+  for (const p of detail.parts) {
+    const r = partQuoteInput(files.find((f) => f.id === p.currentFileId)?.analysis, p);
+    if ("problem" in r) unpriced.push({ name: p.name, reason: r.problem });
+    else parts.push({ ...r.input, label: p.name, quantity: p.quantity });
+  }
+  if (!parts.length) return { priced: null, unpriced };
+  try {
+    return { priced: await quoteAssemblyParts(user, { parts }), unpriced };
+  } catch (e) {
+    if (e instanceof AppError && e.code === "invalid") return { priced: null, unpriced: [...unpriced, { name: "—", reason: e.message }] };
+    throw e;
+  }
 }

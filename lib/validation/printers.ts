@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { MATERIALS, MATERIAL_KEYS } from "../estimate/materials";
 
 /** Material families the workshop may stock; the keys of lib/estimate's MATERIALS. */
 export const materialTypes = ["pla", "petg", "abs", "asa", "tpu", "nylon", "pc"] as const;
@@ -84,3 +85,9 @@ export const quoteAssemblyInput = z.strictObject({
     .max(500),
 });
 export type QuoteAssemblyInput = z.infer<typeof quoteAssemblyInput>;
+
+/** A material as parts store it ("PLA", "Nylon (PA6)", "nylon" …) → its family key, or null. */
+export function materialKeyOf(name: string): MaterialType | null {
+  const n = name.trim().toLowerCase();
+  return MATERIAL_KEYS.find((k) => k === n || MATERIALS[k].name.toLowerCase() === n || MATERIALS[k].name.toLowerCase().startsWith(`${n} `)) ?? null;
+}

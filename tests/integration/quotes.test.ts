@@ -6,9 +6,9 @@ import { closeDb, db } from "@/db";
 import { materials, workshopSettings } from "@/db/schema";
 import { AppError } from "@/lib/server/errors";
 import { createPrinter, getPrinter, recordFinishedPlate, updatePrinter } from "@/lib/server/printers";
-import { quoteAssemblyParts, quotePart } from "@/lib/server/quotes";
+import { partQuoteInput, quoteAssemblyParts, quotePart } from "@/lib/server/quotes";
 import type { SessionUser } from "@/lib/server/session";
-import { printerInput, printerUpdateInput, quoteAssemblyInput, quotePartInput } from "@/lib/validation/printers";
+import { materialKeyOf, printerInput, printerUpdateInput, quoteAssemblyInput, quotePartInput } from "@/lib/validation/printers";
 
 const admin: SessionUser = { id: 9301, email: "a@test.example", name: "Test Admin", role: "admin" };
 const operator: SessionUser = { id: 9302, email: "o@test.example", name: "Test Operator", role: "operator" };
@@ -100,5 +100,22 @@ describe("quotes", () => {
     const bad = quotePartInput.safeParse({ ...cube(), volumeMm3: -1, infillPercent: 120 });
     expect(bad.error?.issues.map((i) => i.path[0]).sort()).toEqual(["infillPercent", "volumeMm3"]);
     expect(quotePartInput.safeParse({ ...cube(), price: 1 }).success).toBe(false);
+  });
+
+  it("reads a stored analysis into the same quote, and says why when it cannot", async () => {
+    // The cube's analysis as analysisToJson writes it (size, volume, area, footprint).
+    const analysis = { size: [20, 20, 20], volume_mm3: 8000, volume_reliable: true, area_mm2: 2400, footprint_area_mm2: 400 };
+    const r = partQuoteInput(analysis, { material: "PLA", layerHeightMm: 0.2, walls: 2, infillPercent: 15 });
+    expect("input" in r).toBe(true);
+    if (!("input" in r)) return;
+    const fromStored = await quotePart(member, { ...r.input, materialId });
+    const direct = await quotePart(member, cube());
+    expect(fromStored.options.map((o) => o.cost)).toEqual(direct.options.map((o) => o.cost));
+    expect(partQuoteInput(null, { material: "PLA", layerHeightMm: 0.2, walls: 2, infillPercent: 15 })).toEqual({ problem: "no mesh uploaded" });
+    expect(partQuoteInput({ ...analysis, volume_reliable: false }, { material: "PLA", layerHeightMm: 0.2, walls: 2, infillPercent: 15 })).toEqual({ problem: "mesh not closed" });
+    expect(materialKeyOf("PETG")).toBe("petg");
+    expect(materialKeyOf("Nylon")).toBe("nylon");
+    expect(materialKeyOf("tpu")).toBe("tpu");
+    expect(materialKeyOf("Wood fill")).toBeNull();
   });
 });

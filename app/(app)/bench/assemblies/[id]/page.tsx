@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { AssemblyView } from "@/components/bench/assembly-view";
+import { AssemblyQuotePanel } from "@/components/quote/assembly-quote-panel";
 import type { AssemblyDetailWire } from "@/lib/queries/assemblies";
 import { AppError } from "@/lib/server/errors";
 import { getAssemblyDetail } from "@/lib/server/parts";
@@ -23,5 +24,10 @@ export default async function AssemblyPage({ params }: { params: Promise<{ id: s
   }
   const w = await getWorkshopSettings();
   const defaults = `Empty fields take the workshop's defaults: ${w.defaultLayerHeightMm} mm layers, ${w.defaultWalls} walls, ${w.defaultInfillPercent} % infill.`;
-  return <AssemblyView id={id} initial={JSON.parse(JSON.stringify(detail)) as AssemblyDetailWire} defaults={defaults} />;
+  return (
+    <>
+      <AssemblyView id={id} initial={JSON.parse(JSON.stringify(detail)) as AssemblyDetailWire} defaults={defaults} />
+      <AssemblyQuotePanel assemblyId={id} />
+    </>
+  );
 }
