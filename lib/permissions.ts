@@ -24,6 +24,8 @@ export const permissions = {
   "queue:manage": ["operator", "admin"],
   "plates:view": ["member", "operator", "admin"],
   "plates:act": ["operator", "admin"],
+  "insights:view": ["operator", "admin"],
+  "insights:money": ["admin"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof permissions;
@@ -55,6 +57,7 @@ export const navByRole: Record<Role, NavItem[]> = {
     { href: "/floor", label: "Floor" },
     { href: "/printers", label: "Printers" },
     { href: "/materials", label: "Materials" },
+    { href: "/insights", label: "Insights" },
     { href: "/account", label: "Account" },
   ],
   admin: [
@@ -65,6 +68,7 @@ export const navByRole: Record<Role, NavItem[]> = {
     { href: "/workshop/hours", label: "Opening hours" },
     { href: "/workshop/people", label: "People" },
     { href: "/workshop/billing", label: "Billing" },
+    { href: "/insights", label: "Insights" },
   ],
 };
 
