@@ -9,5 +9,7 @@ export const queryKeys = {
   parts: { all: ["parts"] as const, mine: () => ["parts", "mine"] as const, detail: (id: number) => ["parts", "detail", id] as const },
   people: { all: ["people"] as const, list: () => ["people", "list"] as const, invitations: () => ["people", "invitations"] as const },
   mail: { all: ["mail"] as const, mailbox: () => ["mail", "mailbox"] as const, outbox: () => ["mail", "outbox"] as const, preferences: () => ["mail", "preferences"] as const },
+  queue: { all: ["queue"] as const, board: () => ["queue", "board"] as const, part: (id: number) => ["queue", "part", id] as const },
+  plates: { all: ["plates"] as const, detail: (id: number) => ["plates", "detail", id] as const },
   ledger: { all: ["ledger"] as const, mine: () => ["ledger", "mine"] as const, balances: () => ["ledger", "balances"] as const },
 };
