@@ -22,7 +22,7 @@ export function PartQuote({
   analysis: unknown;
   part: { material: string; layerHeightMm: number; walls: number; infillPercent: number };
 }) {
-  const a = (analysis ?? null) as StoredAnalysis | null;
+  const a = readAnalysis(analysis);
   const material = materialKeyOf(part.material);
   const problem = !a
     ? "Upload a mesh to see what this part costs."
@@ -59,4 +59,16 @@ export function PartQuote({
       />
     </div>
   );
+}
+
+/** MariaDB keeps JSON as text, so the driver may hand back a string; accept both. */
+function readAnalysis(v: unknown): StoredAnalysis | null {
+  if (typeof v === "string") {
+    try {
+      return JSON.parse(v) as StoredAnalysis;
+    } catch {
+      return null;
+    }
+  }
+  return (v ?? null) as StoredAnalysis | null;
 }

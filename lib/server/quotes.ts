@@ -139,21 +139,38 @@ export interface AssemblyQuoteResult extends AssemblyQuote {
 }
 
 /** A whole assembly: each part on its cheapest fitting printer, the fee once for the assembly. */
-export async function quoteAssemblyParts(user: SessionUser, input: QuoteAssemblyInput): Promise<AssemblyQuoteResult> {
+export async function quoteAssemblyParts(
+  user: SessionUser,
+  input: QuoteAssemblyInput,
+  { skipUnpriceable = false }: { skipUnpriceable?: boolean } = {},
+): Promise<AssemblyQuoteResult & { skipped: { name: string; reason: string }[] }> {
   if (!can(user.role, "quotes:request")) throw new AppError("forbidden", "Your role may not ask for quotes.");
   const settings = await getWorkshopSettings();
   const lines: Parameters<typeof quoteAssembly>[0][number][] = [];
   const choices: AssemblyQuoteResult["choices"] = [];
+  const skipped: { name: string; reason: string }[] = [];
   for (const [i, part] of input.parts.entries()) {
     const { label, quantity, ...one } = part;
-    const q = await quotePart(user, one);
+    const name = label ?? `Part ${i + 1}`;
+    let q: PartQuote;
+    try {
+      q = await quotePart(user, one);
+    } catch (e) {
+      if (!(skipUnpriceable && e instanceof AppError && e.code === "invalid")) throw e;
+      skipped.push({ name, reason: e.message });
+      continue;
+    }
     const best = q.options.find((o) => o.fits);
-    if (!best) throw new AppError("invalid", `${label ?? `Part ${i + 1}`} fits on no printer that takes its material.`);
+    if (!best) {
+      if (!skipUnpriceable) throw new AppError("invalid", `${name} fits on no printer that takes its material.`);
+      skipped.push({ name, reason: "fits on no printer that takes its material" });
+      continue;
+    }
     const cost = quoteCost({ grams: best.grams, minutes: best.minutes }, best, q.material, 0);
     lines.push({ label, quantity, cost });
     choices.push({ label, printerName: best.printerName, materialName: q.material.name, grams: best.grams, minutes: best.minutes });
   }
-  return { ...quoteAssembly(lines, settings.plateFeeCents), currency: settings.currency, choices };
+  return { ...quoteAssembly(lines, lines.length ? settings.plateFeeCents : 0), currency: settings.currency, choices, skipped };
 }
 
 export interface StoredAnalysis {
@@ -169,7 +186,7 @@ export function partQuoteInput(
   analysis: unknown,
   part: { material: string; layerHeightMm: number; walls: number; infillPercent: number },
 ): { input: QuotePartInput } | { problem: string } {
-  const a = (analysis ?? null) as StoredAnalysis | null;
+  const a = readAnalysis(analysis);
   if (!a) return { problem: "no mesh uploaded" };
   if (!a.volume_reliable || !a.volume_mm3 || !a.area_mm2 || !a.size) return { problem: "mesh not closed" };
   const material = materialKeyOf(part.material);
@@ -208,10 +225,18 @@ export async function quoteStoredAssembly(user: SessionUser, assemblyId: number)
     else parts.push({ ...r.input, label: p.name, quantity: p.quantity });
   }
   if (!parts.length) return { priced: null, unpriced };
-  try {
-    return { priced: await quoteAssemblyParts(user, { parts }), unpriced };
-  } catch (e) {
-    if (e instanceof AppError && e.code === "invalid") return { priced: null, unpriced: [...unpriced, { name: "—", reason: e.message }] };
-    throw e;
+  const { skipped, ...priced } = await quoteAssemblyParts(user, { parts }, { skipUnpriceable: true });
+  return { priced: priced.lines.length ? priced : null, unpriced: [...unpriced, ...skipped] };
+}
+
+/** MariaDB keeps JSON as text, so the driver may hand back a string; accept both. */
+function readAnalysis(v: unknown): StoredAnalysis | null {
+  if (typeof v === "string") {
+    try {
+      return JSON.parse(v) as StoredAnalysis;
+    } catch {
+      return null;
+    }
   }
+  return (v ?? null) as StoredAnalysis | null;
 }

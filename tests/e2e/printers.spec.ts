@@ -93,6 +93,18 @@ test.describe("as member", () => {
     await adminCtx.close();
   });
 
+  test("sees quotes on an assembly and on a part before submitting", async ({ page }) => {
+    await page.goto("/bench");
+    await page.getByRole("link", { name: "Camera slider" }).first().click();
+    const whole = page.getByRole("region", { name: "Quote for the whole assembly" });
+    await expect(whole.getByTestId("assembly-quote-total")).toHaveText(/€\d+\.\d\d/);
+    await page.getByRole("link", { name: "Carriage plate" }).first().click();
+    const one = page.getByRole("region", { name: "Quote for one copy" });
+    await expect(one.getByTestId("quote-best")).toContainText(/From €\d+\.\d\d on /);
+    // PETG: every printer in the seed takes it and a 90 × 70 × 8 mm plate fits them all.
+    for (const n of ["Wren", "Heron", "Kestrel", "Osprey"]) await expect(one.getByRole("row", { name: `Quote on ${n}` })).toBeVisible();
+  });
+
   test("the API refuses printer, price and hours changes (403) but answers quotes", async ({ request }) => {
     const printers = (await (await request.get("/api/printers")).json()) as { id: number }[];
     const id = printers[0]!.id;

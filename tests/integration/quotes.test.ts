@@ -111,6 +111,9 @@ describe("quotes", () => {
     const fromStored = await quotePart(member, { ...r.input, materialId });
     const direct = await quotePart(member, cube());
     expect(fromStored.options.map((o) => o.cost)).toEqual(direct.options.map((o) => o.cost));
+    // As text, the way MariaDB's JSON column may come back from the driver.
+    const asText = partQuoteInput(JSON.stringify(analysis), { material: "PLA", layerHeightMm: 0.2, walls: 2, infillPercent: 15 });
+    expect(asText).toEqual(r);
     expect(partQuoteInput(null, { material: "PLA", layerHeightMm: 0.2, walls: 2, infillPercent: 15 })).toEqual({ problem: "no mesh uploaded" });
     expect(partQuoteInput({ ...analysis, volume_reliable: false }, { material: "PLA", layerHeightMm: 0.2, walls: 2, infillPercent: 15 })).toEqual({ problem: "mesh not closed" });
     expect(materialKeyOf("PETG")).toBe("petg");
