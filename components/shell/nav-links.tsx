@@ -6,10 +6,14 @@ import type { NavItem } from "@/lib/permissions";
 
 export function NavLinks({ items }: { items: NavItem[] }) {
   const pathname = usePathname();
+  // The deepest matching entry is the current one, so /bench/parts marks "My parts", not "Bench".
+  const current = items
+    .filter((i) => pathname === i.href || pathname.startsWith(`${i.href}/`))
+    .sort((a, b) => b.href.length - a.href.length)[0]?.href;
   return (
     <ul className="flex flex-wrap gap-1" aria-label="Main">
       {items.map((item) => {
-        const active = pathname === item.href || pathname.startsWith(`${item.href}/`);
+        const active = item.href === current;
         return (
           <li key={item.href}>
             <Link
