@@ -58,6 +58,9 @@ export function SignInForm({ next }: { next: string }) {
       <Button type="submit" disabled={busy}>
         {busy ? "Signing in…" : "Sign in"}
       </Button>
+      <a href="/reset" className="text-center text-sm text-ink-soft underline-offset-4 hover:text-ink hover:underline">
+        Forgot your password?
+      </a>
     </form>
   );
 }
