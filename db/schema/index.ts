@@ -7,3 +7,4 @@ export * from "./mail";
 export * from "./ledger";
 export * from "./plates";
 export * from "./maintenance";
+export * from "./orientation";
