@@ -12,4 +12,5 @@ export const queryKeys = {
   queue: { all: ["queue"] as const, board: () => ["queue", "board"] as const, part: (id: number) => ["queue", "part", id] as const },
   plates: { all: ["plates"] as const, detail: (id: number) => ["plates", "detail", id] as const },
   ledger: { all: ["ledger"] as const, mine: () => ["ledger", "mine"] as const, balances: () => ["ledger", "balances"] as const },
+  insights: { all: ["insights"] as const, period: (search: string) => ["insights", search] as const },
 };
