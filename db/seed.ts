@@ -8,6 +8,7 @@ import { demoUsers, demoWorkshop } from "./seed-data";
 import { seedPrinters } from "./seed/printers";
 import { targetFromEnv, type DbTarget } from "./migrate";
 import { seedAssemblies } from "./seed/assemblies";
+import { seedPlates } from "./seed/plates";
 import { seedLedger } from "./seed/ledger";
 
 export async function seed(target: DbTarget): Promise<{ usersAdded: number }> {
@@ -26,6 +27,7 @@ export async function seed(target: DbTarget): Promise<{ usersAdded: number }> {
     }
     await seedPrinters(d);
     await seedAssemblies(d);
+    await seedPlates(d);
     await seedLedger(d);
     return { usersAdded };
   } finally {

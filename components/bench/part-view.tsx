@@ -18,6 +18,8 @@ import { partQuery, type PartDetailWire } from "@/lib/queries/parts";
 import { FileDrop } from "./file-drop";
 import { PartNumbers } from "./part-numbers";
 import { PartStatusPanel } from "./part-status";
+import { SendToWorkshop } from "@/components/plates/send-form";
+import { LIVE_POLL_MS } from "@/lib/queries/queue";
 
 /** Fetches the stored mesh and reads it in the worker, so the page's thread never parses. */
 function useStoredMesh(fileId: number | null, units: "mm" | "in") {
@@ -120,7 +122,7 @@ function EditForm({ d }: { d: PartDetailWire }) {
 }
 
 export function PartView({ id, initial }: { id: number; initial: PartDetailWire }) {
-  const q = useQuery({ ...partQuery(id), initialData: initial });
+  const q = useQuery({ ...partQuery(id), initialData: initial, refetchInterval: LIVE_POLL_MS });
   const d = q.data;
   const a = d.current?.analysis as AnalysisJson | undefined;
   return (
@@ -138,6 +140,7 @@ export function PartView({ id, initial }: { id: number; initial: PartDetailWire 
           <ViewerPanel d={d} />
           {d.canEdit ? <FileDrop target={{ kind: "version", partId: id }} /> : null}
           <PartStatusPanel d={d} />
+          <SendToWorkshop partId={id} canEdit={d.canEdit && d.access !== "workshop"} />
           <section aria-labelledby="history-h" className="flex flex-col gap-2">
             <h2 id="history-h">Mesh history</h2>
             {d.files.length === 0 ? <p className="text-sm text-ink-soft">No uploads yet.</p> : (
