@@ -1,6 +1,7 @@
 "use client";
 
 import { signIn } from "next-auth/react";
+import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
 import { z } from "zod";
@@ -58,9 +59,9 @@ export function SignInForm({ next }: { next: string }) {
       <Button type="submit" disabled={busy}>
         {busy ? "Signing in…" : "Sign in"}
       </Button>
-      <a href="/reset" className="text-center text-sm text-ink-soft underline-offset-4 hover:text-ink hover:underline">
+      <Link href="/reset" className="text-center text-sm text-ink-soft underline-offset-4 hover:text-ink hover:underline">
         Forgot your password?
-      </a>
+      </Link>
     </form>
   );
 }
