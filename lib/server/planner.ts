@@ -1,5 +1,5 @@
 import "server-only";
-import { asc, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import { db } from "@/db";
 import {
   assemblies,
@@ -7,6 +7,7 @@ import {
   materials,
   partFiles,
   partInstances,
+  partOrientations,
   parts,
   plates,
   printerMaterials,
@@ -99,10 +100,14 @@ export function materialKeyOf(material: string): MaterialType | null {
 }
 
 /**
- * Footprint and height of an instance as it will lie on the bed. Today: the current file's
- * bounding box as uploaded (Z up). When orientation stores a rotation on the part, apply it here.
+ * Footprint and height of an instance as it will lie on the bed: the chosen orientation's (stored
+ * in part_orientations for the current file) when there is one, else the file's box as uploaded (Z up).
  */
-export function instanceGeometry(file: { sizeX: number; sizeY: number; sizeZ: number }): { footprint: [number, number]; height: number } {
+export function instanceGeometry(
+  file: { sizeX: number; sizeY: number; sizeZ: number },
+  oriented?: { footprint: [number, number]; height: number } | null,
+): { footprint: [number, number]; height: number } {
+  if (oriented) return { footprint: [oriented.footprint[0], oriented.footprint[1]], height: oriented.height };
   return { footprint: [file.sizeX, file.sizeY], height: file.sizeZ };
 }
 
@@ -195,12 +200,16 @@ export async function loadQueue(d: Executor, all: readonly PlanPrinter[], timezo
       sizeY: partFiles.sizeY,
       sizeZ: partFiles.sizeZ,
       analysis: partFiles.analysis,
+      orientX: partOrientations.footprintX,
+      orientY: partOrientations.footprintY,
+      orientZ: partOrientations.heightMm,
     })
     .from(queueEntries)
     .innerJoin(partInstances, eq(partInstances.id, queueEntries.instanceId))
     .innerJoin(parts, eq(parts.id, partInstances.partId))
     .innerJoin(assemblies, eq(assemblies.id, parts.assemblyId))
     .leftJoin(partFiles, eq(partFiles.id, parts.currentFileId))
+    .leftJoin(partOrientations, and(eq(partOrientations.partId, parts.id), eq(partOrientations.fileId, parts.currentFileId), eq(partOrientations.kind, "chosen")))
     .where(inArray(partInstances.status, ["queued", "plated"]))
     .orderBy(asc(queueEntries.sentAt), asc(partInstances.id));
   const dens = await densities(d);
@@ -213,7 +222,8 @@ export async function loadQueue(d: Executor, all: readonly PlanPrinter[], timezo
       refused.push({ instanceId: r.instanceId, reason: !type ? `unknown material ${r.material}` : !timing ? `no printer takes ${r.material}` : "the part has no mesh" });
       continue;
     }
-    const geo = instanceGeometry({ sizeX: r.sizeX, sizeY: r.sizeY, sizeZ: r.sizeZ });
+    const oriented = r.orientX !== null && r.orientY !== null && r.orientZ !== null ? { footprint: [r.orientX, r.orientY] as [number, number], height: r.orientZ } : null;
+    const geo = instanceGeometry({ sizeX: r.sizeX, sizeY: r.sizeY, sizeZ: r.sizeZ }, oriented);
     const est = estimateInstance({ ...r, sizeZ: geo.height, analysis: (r.analysis ?? {}) as PartForEstimate["analysis"] }, timing, densityOf(dens, type));
     ready.push({
       key: `i${r.instanceId}`,

@@ -1,0 +1,20 @@
+// POST /api/parts/[partId]/orientation/search: run the orientation search on the server and store the best as a suggestion.
+import { NextResponse } from "next/server";
+import { parseId } from "@/lib/server/assemblies";
+import { errorResponse, readJson } from "@/lib/server/errors";
+import { runOrientationSearch } from "@/lib/server/orientation";
+import { requireUser } from "@/lib/server/session";
+import { orientationSearchInput } from "@/lib/validation/orientation";
+
+type Ctx = { params: Promise<{ partId: string }> };
+
+export async function POST(req: Request, ctx: Ctx) {
+  try {
+    const user = await requireUser("bench:use");
+    const id = parseId((await ctx.params).partId);
+    const body = req.headers.get("content-type") ? await readJson(req) : {};
+    return NextResponse.json(await runOrientationSearch(user, id, orientationSearchInput.parse(body)));
+  } catch (e) {
+    return errorResponse(e);
+  }
+}
