@@ -35,7 +35,7 @@ test("send, re-plan, start, finish; the member sees it printed; a failure goes b
   const operator = await operatorCtx.newPage();
 
   await partPage(member, "Controller lid");
-  await member.getByLabel("Copies").fill("1");
+  await member.getByRole("spinbutton", { name: "Copies" }).fill("1");
   await member.getByRole("button", { name: "Send to the workshop" }).click();
   await expect(member.getByText("Sent 1 copy.")).toBeVisible();
 
@@ -71,7 +71,7 @@ test("send, re-plan, start, finish; the member sees it printed; a failure goes b
 
   // A second part, failed on the printer: its copy is back in the queue with a reprint counted.
   await partPage(member, "Spacer ring");
-  await member.getByLabel("Copies").fill("1");
+  await member.getByRole("spinbutton", { name: "Copies" }).fill("1");
   await member.getByRole("button", { name: "Send to the workshop" }).click();
   await expect(member.getByText("Sent 1 copy.")).toBeVisible();
   await operator.goto("/floor");
