@@ -13,4 +13,5 @@ export const queryKeys = {
   plates: { all: ["plates"] as const, detail: (id: number) => ["plates", "detail", id] as const },
   ledger: { all: ["ledger"] as const, mine: () => ["ledger", "mine"] as const, balances: () => ["ledger", "balances"] as const },
   insights: { all: ["insights"] as const, period: (search: string) => ["insights", search] as const },
+  orientation: { all: ["orientation"] as const, part: (id: number) => ["orientation", "part", id] as const, split: (id: number) => ["orientation", "split", id] as const },
 };

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { PartView } from "@/components/bench/part-view";
+import { PartPlanner } from "@/components/orient/part-planner";
 import { PartQuote } from "@/components/quote/part-quote";
 import type { PartDetailWire } from "@/lib/queries/parts";
 import { AppError } from "@/lib/server/errors";
@@ -26,6 +27,15 @@ export default async function PartPage({ params }: { params: Promise<{ partId: s
     <>
       <PartView id={id} initial={JSON.parse(JSON.stringify(detail)) as PartDetailWire} />
       <PartQuote analysis={detail.current?.analysis} part={detail.part} />
+      <PartPlanner
+        partId={id}
+        fileId={detail.current?.id ?? null}
+        units={detail.current?.units ?? "mm"}
+        layerHeight={detail.part.layerHeightMm}
+        material={detail.part.material}
+        canEdit={detail.canEdit && detail.access !== "workshop"}
+        beds={detail.beds.map((b) => ({ id: b.id, name: b.name, bedX: b.bedX, bedY: b.bedY, height: b.height, materials: b.materials }))}
+      />
     </>
   );
 }

@@ -1,0 +1,32 @@
+// Number formatting for the planner panels (en-GB, as on the part page).
+export const mm = (v: number, digits = 1) => v.toLocaleString("en-GB", { maximumFractionDigits: digits, minimumFractionDigits: 0 });
+
+export function downLabel(d: readonly number[]): string {
+  const names = ["X", "Y", "Z"];
+  const k = d.reduce((best, v, i) => (Math.abs(v) > Math.abs(d[best]!) ? i : best), 0);
+  if (Math.abs(d[k]!) > 0.999) return `${d[k]! < 0 ? "−" : "+"}${names[k]} faces the bed`;
+  return `(${d.map((v) => v.toFixed(2)).join(", ")}) faces the bed`;
+}
+
+/** Fetches the part's stored file; each call gets its own buffer, since the worker takes it over. */
+export async function fileBytes(fileId: number): Promise<ArrayBuffer> {
+  const r = await fetch(`/api/files/${fileId}`);
+  if (!r.ok) throw new Error(`the file could not be fetched (${r.status})`);
+  return r.arrayBuffer();
+}
+
+export interface BedInfo {
+  id: number;
+  name: string;
+  bedX: number;
+  bedY: number;
+  height: number;
+  materials: string[];
+}
+
+/** Printers that take the part's material (all when none match), as the planner wants them. */
+export function plannerPrinters(beds: BedInfo[], material: string) {
+  const key = material.trim().split(/\s+/)[0]?.toLowerCase() ?? "";
+  const able = beds.filter((b) => b.materials.some((m) => m.toLowerCase() === key));
+  return (able.length ? able : beds).map((b) => ({ id: String(b.id), bed: [b.bedX, b.bedY] as [number, number], height: b.height }));
+}

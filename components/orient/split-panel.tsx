@@ -1,0 +1,135 @@
+"use client";
+// "Plan a split": the planner ranks cuts in the worker; the member previews one (pieces drawn
+// apart) and accepts it. The server re-cuts the stored mesh itself and creates the pieces as parts.
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import Link from "next/link";
+import { useMemo, useRef, useState } from "react";
+import { Button } from "@/components/ui/button";
+import { EmptyState, Notice } from "@/components/ui/notice";
+import { Viewer } from "@/components/viewer/viewer";
+import type { Quat } from "@/lib/orient/rotation";
+import type { SplitCandidateView, SplitJobResult } from "@/lib/orient/worker-protocol";
+import { queryKeys } from "@/lib/queries/keys";
+import { acceptSplitCall } from "@/lib/queries/orientation";
+import { fileBytes, mm, plannerPrinters } from "./format";
+import { Progress, type PlannerPart } from "./orientation-panel";
+import { PlannerCancelled, useOrientWorker } from "./use-orient-worker";
+
+const NO_EDGES = new Float32Array();
+/** Gap between pieces in the preview, mm. */
+const GAP = 8;
+
+function centroid(p: Float32Array): [number, number, number] {
+  const c: [number, number, number] = [0, 0, 0];
+  const n = p.length / 3 || 1;
+  for (let i = 0; i < p.length; i += 3) { c[0] += p[i]!; c[1] += p[i + 1]!; c[2] += p[i + 2]!; }
+  return [c[0] / n, c[1] / n, c[2] / n];
+}
+
+/** Pieces moved apart from the whole's centre, so the cut shows; plain clay (no overhang shading). */
+function exploded(c: SplitCandidateView): { positions: Float32Array; mask: Uint8Array } {
+  const total = c.pieces.reduce((s, p) => s + p.positions.length, 0);
+  const out = new Float32Array(total);
+  const all: [number, number, number] = [0, 0, 0];
+  for (const p of c.pieces) {
+    const pc = centroid(p.positions);
+    for (let k = 0; k < 3; k++) all[k] = all[k]! + (pc[k]! * p.positions.length) / (total || 1);
+  }
+  let at = 0;
+  for (const p of c.pieces) {
+    const pc = centroid(p.positions);
+    const d = [pc[0] - all[0], pc[1] - all[1], pc[2] - all[2]];
+    const l = Math.hypot(d[0]!, d[1]!, d[2]!) || 1;
+    for (let i = 0; i < p.positions.length; i++) out[at + i] = p.positions[i]! + (d[i % 3]! / l) * GAP;
+    at += p.positions.length;
+  }
+  return { positions: out, mask: new Uint8Array(total / 9) };
+}
+
+function Preview({ c }: { c: SplitCandidateView }) {
+  const view = useMemo(() => exploded(c), [c]);
+  return (
+    <div className="h-56 overflow-hidden rounded border border-rule" data-testid="split-preview">
+      <Viewer positions={view.positions} overhangMask={view.mask} bed={null} edges={NO_EDGES} showProblems={false} />
+    </div>
+  );
+}
+
+export function SplitPanel({ p, quaternion }: { p: PlannerPart; quaternion: Quat }) {
+  const { split } = useOrientWorker();
+  const qc = useQueryClient();
+  const [fraction, setFraction] = useState<number | null>(null);
+  const [plan, setPlan] = useState<SplitJobResult | null>(null);
+  const [pick, setPick] = useState(0);
+  const [error, setError] = useState<string | null>(null);
+  const cancelRef = useRef<() => void>(() => {});
+  const accept = useMutation({
+    mutationFn: (c: SplitCandidateView) =>
+      acceptSplitCall(p.partId, { fileId: p.fileId, quaternion, cut: c.kind === "plane" && c.planes[0] ? { kind: "plane", plane: { normal: c.planes[0].normal, offset: c.planes[0].offset } } : { kind: "to-fit" } }),
+    onSuccess: () => setPlan(null),
+    onSettled: () => Promise.all([qc.invalidateQueries({ queryKey: queryKeys.orientation.all }), qc.invalidateQueries({ queryKey: queryKeys.parts.all }), qc.invalidateQueries({ queryKey: queryKeys.assemblies.all })]),
+  });
+
+  const run = async () => {
+    setError(null);
+    setPlan(null);
+    setPick(0);
+    setFraction(0);
+    try {
+      const buf = await fileBytes(p.fileId);
+      const call = split(buf, { units: p.units, printers: plannerPrinters(p.beds, p.material), layerHeight: p.layerHeight, quaternion }, setFraction);
+      cancelRef.current = call.cancel;
+      setPlan(await call.promise);
+    } catch (e) {
+      if (!(e instanceof PlannerCancelled)) setError(e instanceof Error ? e.message : "The split planner failed.");
+    } finally {
+      setFraction(null);
+    }
+  };
+
+  const chosen = plan?.candidates[pick];
+  return (
+    <section aria-labelledby="split-h" className="flex flex-col gap-3">
+      <h2 id="split-h">Plan a split</h2>
+      <p className="text-sm text-ink-soft">Looks for cuts that save support or make a part too big for every printer printable, in the orientation above. Accepting a cut makes each piece a new part to glue.</p>
+      {fraction === null ? (
+        <div><Button type="button" variant="secondary" onClick={run}>{plan ? "Plan again" : "Plan a split"}</Button></div>
+      ) : (
+        <Progress fraction={fraction} label="Split planner" onCancel={() => { cancelRef.current(); setFraction(null); }} />
+      )}
+      {error ? <Notice tone="fail" title="The split planner failed.">{error}</Notice> : null}
+      {accept.isError ? <Notice tone="fail" title="The split could not be made.">{accept.error.message}</Notice> : null}
+      {accept.isSuccess ? (
+        <Notice tone="ok" title={`Split into ${accept.data.pieces.length} pieces.`}>
+          <ul>{accept.data.pieces.map((x) => <li key={x.partId}><Link className="underline" href={`/bench/parts/${x.partId}`}>{x.name}</Link></li>)}</ul>
+        </Notice>
+      ) : null}
+      {plan && plan.candidates.length === 0 ? <EmptyState title="No cut worth making">No plane saves more than 1 % of the support{plan.partFits ? "" : " or makes the part fit a printer"}.</EmptyState> : null}
+      {plan && plan.candidates.length > 0 ? (
+        <>
+          <table className="w-full text-sm" aria-label="Ranked splits">
+            <thead><tr className="text-left text-xs text-ink-soft"><th scope="col">Preview</th><th scope="col">Pieces</th><th scope="col">Support saved</th><th scope="col">Glue face</th><th scope="col">All pieces fit</th></tr></thead>
+            <tbody>
+              {plan.candidates.map((c, i) => (
+                <tr key={i} className={i === pick ? "bg-accent-wash" : ""}>
+                  <td><label className="flex items-center gap-1"><input type="radio" name="split-pick" checked={i === pick} onChange={() => setPick(i)} aria-label={`Split ${i + 1}`} />{i === 0 ? "Best" : `#${i + 1}`}</label></td>
+                  <td className="num">{c.pieces.length}</td>
+                  <td className="num">{mm(c.supportSaved, 0)} mm³ ({c.supportBefore > 0 ? Math.round((100 * c.supportSaved) / c.supportBefore) : 0} %)</td>
+                  <td className="num">{mm(c.cutArea, 0)} mm²</td>
+                  <td>{c.allPiecesFit ? "✓ yes" : "✕ no"}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          {chosen ? <Preview c={chosen} /> : null}
+          {chosen ? (
+            <div className="flex items-center gap-3">
+              <Button type="button" disabled={accept.isPending} onClick={() => accept.mutate(chosen)}>{accept.isPending ? "Cutting on the server…" : "Accept split"}</Button>
+              <span className="text-xs text-ink-soft">Pieces of {chosen.pieces.map((x) => `${mm(x.volume / 1000)} cm³`).join(", ")}</span>
+            </div>
+          ) : null}
+        </>
+      ) : null}
+    </section>
+  );
+}
