@@ -1,0 +1,98 @@
+// Role matrix: every route handler under app/ (read from the file system), called as nobody, the
+// owning member, another member, an operator and an admin, against the answers in role-matrix-table.ts.
+// Expected statuses follow RFC 9110 §15.5 (401 unauthenticated, 403 forbidden, 404 hidden, 422
+// invalid content) and the rules in lib/permissions.ts.
+import { expect, test, type APIRequestContext } from "@playwright/test";
+import type mysql from "mysql2/promise";
+import { matrix, serverActions, type Expect, type MatrixRow } from "./role-matrix-table";
+import { apiClients, callers, disposeAll, e2eDb, listRoutes, listServerActionFiles, loadFixtures, type Caller, type Fixtures } from "./security-fixtures";
+
+let api: Record<Caller, APIRequestContext>;
+let conn: mysql.Connection;
+let fx: Fixtures;
+
+
+test.beforeAll(async () => {
+  api = await apiClients();
+  conn = await e2eDb();
+  fx = await loadFixtures(api.owner, conn);
+});
+
+test.afterAll(async () => {
+  await disposeAll(api);
+  await conn.end();
+});
+
+test("every route handler and server action has a row, and every row a route", () => {
+  const routes = listRoutes();
+  expect(routes.length).toBeGreaterThan(10);
+  const rows = Object.keys(matrix).sort();
+  expect(routes.filter((r) => !rows.includes(r)), "routes without a row in role-matrix-table.ts").toEqual([]);
+  expect(rows.filter((r) => !routes.includes(r)), "rows naming a route that no longer exists").toEqual([]);
+  // Server actions would need rows too; there are none, and a new one fails here until it has a row.
+  expect(listServerActionFiles()).toEqual(Object.keys(serverActions).sort());
+});
+
+async function call(c: APIRequestContext, method: string, path: string, body: MatrixRow["body"]) {
+  const opts =
+    body === "invalid-json"
+      ? { headers: { "content-type": "application/json" }, data: JSON.stringify({ __bad: 1 }) }
+      : body === "upload"
+        ? { headers: { "content-type": "application/octet-stream" }, data: Buffer.from("solid x\nendsolid x\n") }
+        : {};
+  return c.fetch(path, { method, maxRedirects: 0, ...opts });
+}
+
+const okFor = (e: Expect, s: number) => (Array.isArray(e) ? e.includes(s) : e === s);
+
+for (const [key, row] of Object.entries(matrix)) {
+  test(`${key}`, async () => {
+    const [method, route] = key.split(" ") as [string, string];
+    const skipped: string[] = [];
+    const got: Partial<Record<Caller, number>> = {};
+    // Refused callers first, so an allowed destructive call cannot hide a missing check.
+    const order = [...callers].sort((a, b) => Number(row.throwaway?.callers.includes(a) ?? false) - Number(row.throwaway?.callers.includes(b) ?? false));
+    for (const c of order) {
+      const want = row.expect[c];
+      if (typeof want === "string") {
+        skipped.push(`${c}: ${want}`);
+        continue;
+      }
+      const path = row.throwaway?.callers.includes(c) ? await row.throwaway.make(api[c], fx) : row.path(fx);
+      const res = await call(api[c], method, path, row.body);
+      got[c] = res.status();
+      expect.soft(okFor(want, res.status()), `${c} ${method} ${path} (${route}): wanted ${JSON.stringify(want)}, got ${res.status()} ${(await res.text()).slice(0, 200)}`).toBe(true);
+      if (res.status() >= 400) {
+        const text = await res.text();
+        // A refusal says why, as JSON, never a stack trace (next-auth's own answers excepted).
+        if (!route.startsWith("/api/auth/")) expect.soft(JSON.parse(text) as { error?: string }, `${c} ${key} error body`).toHaveProperty("error");
+      }
+      if (row.stillThere && res.status() >= 400) {
+        const still = await api.owner.get(row.stillThere(fx));
+        expect(still.status(), `${key} as ${c}: the object must survive a refused call`).toBe(200);
+      }
+    }
+    if (skipped.length) test.info().annotations.push({ type: "skip", description: skipped.join("; ") });
+    test.info().annotations.push({ type: "statuses", description: JSON.stringify(got) });
+  });
+}
+
+test("another member never reads Jun's assembly, parts or file, even by guessing ids one by one", async () => {
+  // Every id of Jun's parts and files, tried as Priya: all 404, with no name of Jun's in the answer.
+  const det = (await (await api.owner.get(`/api/assemblies/${fx.assemblyId}`)).json()) as { parts: { id: number; name: string; currentFileId: number | null }[] };
+  expect(det.parts.length).toBeGreaterThan(3);
+  for (const p of det.parts) {
+    const res = await api.other.get(`/api/parts/${p.id}`);
+    expect(res.status()).toBe(404);
+    expect(await res.text()).not.toContain(p.name);
+    if (p.currentFileId) expect((await api.other.get(`/api/files/${p.currentFileId}`)).status()).toBe(404);
+  }
+  // Priya's own parts list holds none of Jun's.
+  const mine = (await (await api.other.get("/api/parts")).json()) as { id: number }[];
+  const junIds = new Set(det.parts.map((p) => p.id));
+  expect(mine.some((p) => junIds.has(p.id))).toBe(false);
+  // Priya's ledger is hers alone: nothing in it names Jun.
+  const hers = await api.other.get("/api/ledger");
+  expect(hers.status()).toBe(200);
+  expect(await hers.text()).not.toContain("Jun Ishikawa");
+});
