@@ -228,7 +228,7 @@ export async function itemsOf(ids: number[]) {
 
 export type ItemRow = Awaited<ReturnType<typeof itemsOf>>[number];
 
-async function itemAssembly(itemId: number): Promise<number> {
+export async function itemAssembly(itemId: number): Promise<number> {
   const [row] = await db().select({ assemblyId: items.assemblyId }).from(items).where(eq(items.id, itemId)).limit(1);
   if (!row) throw new AppError("not_found", "No such item.");
   return row.assemblyId;

@@ -1,6 +1,6 @@
 // GET /api/assemblies/[id]: the assembly's tree, parts, items, progress and blockers. PATCH: edit it. DELETE: owner removes it.
 import { NextResponse } from "next/server";
-import { deleteAssembly, parseId, updateAssembly } from "@/lib/server/assemblies";
+import { deleteAssembly, parseId, requireEdit, updateAssembly } from "@/lib/server/assemblies";
 import { errorResponse, readJson } from "@/lib/server/errors";
 import { getAssemblyDetail } from "@/lib/server/parts";
 import { requireUser } from "@/lib/server/session";
@@ -21,6 +21,8 @@ export async function PATCH(req: Request, ctx: Ctx) {
   try {
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).id);
+    // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.
+    await requireEdit(user, id);
     return NextResponse.json(await updateAssembly(user, id, assemblyPatch.parse(await readJson(req))));
   } catch (e) {
     return errorResponse(e);

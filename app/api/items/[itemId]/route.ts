@@ -1,6 +1,6 @@
 // PATCH /api/items/[itemId]: change a hardware or made-elsewhere item (status, quantity…). DELETE: remove it.
 import { NextResponse } from "next/server";
-import { deleteItem, parseId, updateItem } from "@/lib/server/assemblies";
+import { deleteItem, itemAssembly, parseId, requireEdit, updateItem } from "@/lib/server/assemblies";
 import { errorResponse, readJson } from "@/lib/server/errors";
 import { requireUser } from "@/lib/server/session";
 import { itemPatch } from "@/lib/validation/assemblies";
@@ -11,6 +11,8 @@ export async function PATCH(req: Request, ctx: Ctx) {
   try {
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).itemId);
+    // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.
+    await requireEdit(user, await itemAssembly(id));
     return NextResponse.json(await updateItem(user, id, itemPatch.parse(await readJson(req))));
   } catch (e) {
     return errorResponse(e);

@@ -2,7 +2,7 @@
 import { NextResponse } from "next/server";
 import { parseId } from "@/lib/server/assemblies";
 import { errorResponse, readJson } from "@/lib/server/errors";
-import { deletePart, getPartDetail, updatePart } from "@/lib/server/parts";
+import { deletePart, getPartDetail, requirePartEdit, updatePart } from "@/lib/server/parts";
 import { requireUser } from "@/lib/server/session";
 import { partPatch } from "@/lib/validation/assemblies";
 
@@ -21,6 +21,8 @@ export async function PATCH(req: Request, ctx: Ctx) {
   try {
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).partId);
+    // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.
+    await requirePartEdit(user, id);
     return NextResponse.json(await updatePart(user, id, partPatch.parse(await readJson(req))));
   } catch (e) {
     return errorResponse(e);

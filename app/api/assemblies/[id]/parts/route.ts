@@ -1,6 +1,6 @@
 // POST /api/assemblies/[id]/parts: add a printed part (owner or edit share).
 import { NextResponse } from "next/server";
-import { parseId } from "@/lib/server/assemblies";
+import { parseId, requireEdit } from "@/lib/server/assemblies";
 import { errorResponse, readJson } from "@/lib/server/errors";
 import { createPart } from "@/lib/server/parts";
 import { requireUser } from "@/lib/server/session";
@@ -10,6 +10,8 @@ export async function POST(req: Request, ctx: { params: Promise<{ id: string }> 
   try {
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).id);
+    // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.
+    await requireEdit(user, id);
     return NextResponse.json(await createPart(user, id, partInput.parse(await readJson(req))), { status: 201 });
   } catch (e) {
     return errorResponse(e);

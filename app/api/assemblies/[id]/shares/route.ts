@@ -1,6 +1,6 @@
 // GET/POST/DELETE /api/assemblies/[id]/shares: the owner lists, adds (read or edit) or removes (?userId=) members an assembly is shared with.
 import { NextResponse } from "next/server";
-import { listShares, parseId, shareAssembly, unshareAssembly } from "@/lib/server/assemblies";
+import { listShares, parseId, requireEdit, shareAssembly, unshareAssembly } from "@/lib/server/assemblies";
 import { errorResponse, readJson } from "@/lib/server/errors";
 import { requireUser } from "@/lib/server/session";
 import { shareInput } from "@/lib/validation/assemblies";
@@ -20,6 +20,8 @@ export async function POST(req: Request, ctx: Ctx) {
   try {
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).id);
+    // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.
+    await requireEdit(user, id);
     return NextResponse.json(await shareAssembly(user, id, shareInput.parse(await readJson(req))), { status: 201 });
   } catch (e) {
     return errorResponse(e);

@@ -2,7 +2,7 @@
 import { NextResponse } from "next/server";
 import { parseId } from "@/lib/server/assemblies";
 import { errorResponse, readJson } from "@/lib/server/errors";
-import { changeStatus } from "@/lib/server/parts";
+import { changeStatus, partAccess } from "@/lib/server/parts";
 import { requireUser } from "@/lib/server/session";
 import { statusChangeInput } from "@/lib/validation/assemblies";
 
@@ -10,6 +10,8 @@ export async function POST(req: Request, ctx: { params: Promise<{ partId: string
   try {
     const user = await requireUser();
     const id = parseId((await ctx.params).partId);
+    // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.
+    await partAccess(user, id);
     return NextResponse.json(await changeStatus(user, id, statusChangeInput.parse(await readJson(req))));
   } catch (e) {
     return errorResponse(e);
