@@ -10,6 +10,7 @@ import { targetFromEnv, type DbTarget } from "./migrate";
 import { seedAssemblies } from "./seed/assemblies";
 import { seedPlates } from "./seed/plates";
 import { seedLedger } from "./seed/ledger";
+import { seedHistory } from "./seed/history";
 
 export async function seed(target: DbTarget): Promise<{ usersAdded: number }> {
   const conn = await mysql.createConnection(target);
@@ -29,6 +30,7 @@ export async function seed(target: DbTarget): Promise<{ usersAdded: number }> {
     await seedAssemblies(d);
     await seedPlates(d);
     await seedLedger(d);
+    await seedHistory(d);
     return { usersAdded };
   } finally {
     await conn.end();

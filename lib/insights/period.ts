@@ -34,6 +34,7 @@ export interface HourBucket {
 }
 
 const DAY_MS = 86_400_000;
+const HOUR_MS = 3_600_000;
 
 export function isoDate(y: number, m: number, d: number): string {
   const n = new Date(Date.UTC(y, m, d));
@@ -90,23 +91,18 @@ export function resolvePeriod(q: PeriodQuery, timezone: string, now: number): Pe
   return { kind: q.period, timezone, from, to, start, end };
 }
 
-/** One bucket per local hour in [start, end); each ends where the next begins, so they tile exactly. */
+/**
+ * One bucket per hour of [start, end), counted from the start (a local midnight), each named by
+ * the local weekday and hour at its beginning. Both 02:00 hours of an autumn clock change are
+ * named 02; the spring day has no 02. Local hours fall on this grid wherever the zone's offsets
+ * differ by whole hours (every daylight-saving zone but Lord Howe Island's half-hour shift).
+ */
 export function hourBuckets(p: Pick<Period, "start" | "end" | "timezone">): HourBucket[] {
   const out: HourBucket[] = [];
-  let date = localDateOf(p.start, p.timezone);
-  for (let guard = 0; guard < 3700; guard++) {
-    const [y, m, d] = parts(date);
-    const weekday = isoWeekday(date);
-    for (let h = 0; h < 24; h++) {
-      // Hour h+1 of day d; 24 rolls over to the next day's midnight.
-      const s = new TZDate(y, m, d, h, 0, p.timezone).getTime();
-      const e = new TZDate(y, m, d, h + 1, 0, p.timezone).getTime();
-      const cs = Math.max(s, p.start);
-      const ce = Math.min(e, p.end);
-      if (ce > cs) out.push({ start: cs, end: ce, weekday, hour: h });
-    }
-    date = addDays(date, 1);
-    if (localMidnight(date, p.timezone) >= p.end) break;
+  for (let s = p.start; s < p.end; s += HOUR_MS) {
+    const z = new TZDate(s, p.timezone);
+    const js = z.getDay();
+    out.push({ start: s, end: Math.min(s + HOUR_MS, p.end), weekday: js === 0 ? 7 : js, hour: z.getHours() });
   }
   return out;
 }

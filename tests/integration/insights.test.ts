@@ -169,6 +169,20 @@ describe("insights on a hand-made history", () => {
     expect(d.heatmap.reduce((s, c) => s + c.hours, 0)).toBeCloseTo(14.5, 9);
   });
 
+  it("files both 02:00 hours of the autumn clock change under Sunday 02", async () => {
+    // EU summer time ends Sun 25 Oct 2026 at 01:00 UTC (Directive 2000/84/EC): 00:00Z is 02:00 CEST,
+    // 01:00Z is 02:00 CET again, 02:00Z is 03:00 CET. A plate 00:00Z–02:30Z prints 2 h in "02" and 0.5 h in "03".
+    const id = await plate(ids.A!, "finished", new Date(Date.UTC(2026, 9, 25, 0)), new Date(Date.UTC(2026, 9, 25, 2, 30)), { material: "pla" });
+    try {
+      const d = await getInsights(operator, { period: "custom", from: "2026-10-25", to: "2026-10-25" }, Date.UTC(2026, 10, 1));
+      expect(d.period.hours).toBe(25);
+      const cell = (h: number) => d.heatmap.find((c) => c.weekday === 7 && c.hour === h)!.hours;
+      expect([cell(1), cell(2), cell(3)]).toEqual([0, 2, 0.5]);
+    } finally {
+      await db().delete(plates).where(eq(plates.id, id));
+    }
+  });
+
   it("counts failure rates per printer, material, reason and day, and reprints", async () => {
     const d = await getInsights(admin, Q, NOW);
     const { byPrinter, byMaterial, byReason, trend, reprints } = d.failures;

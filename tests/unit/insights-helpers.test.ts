@@ -44,6 +44,8 @@ describe("periods in the workshop's zone", () => {
     expect(hb.reduce((s, b) => s + (b.end - b.start), 0)).toBe(p.end - p.start);
     for (let i = 1; i < hb.length; i++) expect(hb[i]!.start).toBe(hb[i - 1]!.end);
     expect(hb[0]).toMatchObject({ weekday: 1, hour: 0, start: p.start });
+    // Sunday's hours in order: 00, 01, then 02 twice (CEST, then CET), 03 …
+    expect(hb.filter((b) => b.weekday === 7).map((b) => b.hour).slice(0, 5)).toEqual([0, 1, 2, 2, 3]);
     // Trend by day: seven local days, the last 25 hours long.
     const tb = trendBuckets(p);
     expect(tb.map((b) => b.label)).toEqual(["2026-10-19", "2026-10-20", "2026-10-21", "2026-10-22", "2026-10-23", "2026-10-24", "2026-10-25"]);

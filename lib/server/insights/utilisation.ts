@@ -2,10 +2,13 @@ import "server-only";
 import { sql } from "drizzle-orm";
 import type { AttendedCalendar } from "@/lib/calendar/attended-hours";
 import { hourBuckets, type Period } from "@/lib/insights/period";
+import { MAX_PERIOD_DAYS } from "@/lib/validation/insights";
 import type { HeatCell, UtilisationRow } from "@/lib/insights/types";
 import { intervalTable, num, RAN, rows } from "./sql";
 
 const H = 3_600_000_000; // microseconds per hour
+/** Grid hours the longest period can need (a day more for a clock change). */
+const GRID_HOURS = (MAX_PERIOD_DAYS + 2) * 24;
 
 /** Busy spells per printer overlapping the period: plates that ran, and maintenance windows. */
 function spells(a: Date, b: Date) {
@@ -51,24 +54,35 @@ export async function utilisation(p: Period, cal: AttendedCalendar, printers: { 
   });
 }
 
-/** Printing hours of all printers by local weekday and hour: the whole 7 × 24 grid, zeros included. */
+/**
+ * Printing hours of all printers by local weekday and hour: the whole 7 × 24 grid, zeros included.
+ * SQL cuts each plate into the hours of a grid counted from the period's start (MariaDB's built-in
+ * sequence table gives each plate its hour offsets 0 … n, n being the longest plate's span)
+ * and sums per grid hour; Node names each grid hour's local weekday and hour (see hourBuckets).
+ */
 export async function heatmap(p: Period): Promise<HeatCell[]> {
   const a = new Date(p.start);
   const b = new Date(p.end);
-  const buckets = hourBuckets(p).map((h) => ({ start: h.start, end: h.end, a: h.weekday, b: h.hour }));
-  const got = buckets.length
-    ? await rows<{ wd: number; h: number; us: unknown }>(sql`
-      SELECT hb.a AS wd, hb.b AS h, SUM(TIMESTAMPDIFF(MICROSECOND, GREATEST(pl.started_at, hb.s), LEAST(pl.ended_at, hb.e))) AS us
-      FROM ${intervalTable(buckets, "hb")}
-      JOIN plates pl ON pl.started_at < hb.e AND pl.ended_at > hb.s
-      WHERE pl.status IN ${RAN} AND pl.started_at < ${b} AND pl.ended_at > ${a}
-      GROUP BY hb.a, hb.b`)
-    : [];
+  const clipped = sql`(
+      SELECT TIMESTAMPDIFF(MICROSECOND, ${a}, GREATEST(started_at, ${a})) AS s_us, TIMESTAMPDIFF(MICROSECOND, ${a}, LEAST(ended_at, ${b})) AS e_us
+      FROM plates WHERE status IN ${RAN} AND started_at < ${b} AND ended_at > ${a}
+    ) x`;
+  // The longest plate's number of grid hours bounds the offsets each plate is joined with.
+  const [span] = await rows<{ n: unknown }>(sql`SELECT MAX(FLOOR((x.e_us - 1) / ${H}) - FLOOR(x.s_us / ${H})) AS n FROM ${clipped}`);
+  const maxOffset = Math.min(GRID_HOURS - 1, Math.max(0, Math.floor(num(span?.n))));
+  const got = span?.n === null || span?.n === undefined ? [] : await rows<{ k: number; us: unknown }>(sql`
+    SELECT FLOOR(x.s_us / ${H}) + o.seq AS k,
+      SUM(LEAST(x.e_us, (FLOOR(x.s_us / ${H}) + o.seq + 1) * ${H}) - GREATEST(x.s_us, (FLOOR(x.s_us / ${H}) + o.seq) * ${H})) AS us
+    FROM ${clipped}
+    JOIN ${sql.raw(`seq_0_to_${maxOffset}`)} o ON o.seq <= FLOOR((x.e_us - 1) / ${H}) - FLOOR(x.s_us / ${H})
+    GROUP BY k`);
   const cells: HeatCell[] = [];
-  for (let weekday = 1; weekday <= 7; weekday++) {
-    for (let hour = 0; hour < 24; hour++) {
-      cells.push({ weekday, hour, hours: num(got.find((g) => g.wd === weekday && g.h === hour)?.us) / H });
-    }
+  for (let weekday = 1; weekday <= 7; weekday++) for (let hour = 0; hour < 24; hour++) cells.push({ weekday, hour, hours: 0 });
+  const grid = hourBuckets(p);
+  for (const g of got) {
+    const h = grid[Number(g.k)];
+    const cell = h ? cells[(h.weekday - 1) * 24 + h.hour] : undefined;
+    if (cell) cell.hours += num(g.us) / H;
   }
   return cells;
 }
