@@ -1,0 +1,158 @@
+// Load benchmark: the operator's queue listing (GET /api/queue/board) against a trivial route
+// (GET /api/health), 50 connections for 10 s each, on the production server over loopback, in one run.
+// Prints requests per second and p95 latency for both and their ratio. Goal: the board keeps at least
+// 30% of the trivial route's throughput. Not part of `npm test`.
+//
+// Usage: npm run bench:load  (needs a build: `next build` or `bash scripts/e2e.sh …` leaves one in .next)
+// It takes the e2e lock while it runs, so a concurrent e2e build cannot replace .next under it.
+import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { randomBytes } from "node:crypto";
+import { existsSync, readFileSync } from "node:fs";
+import net from "node:net";
+import path from "node:path";
+import autocannon from "autocannon";
+import { demoUsers } from "../../db/seed-data";
+
+const LOCK = "/tmp/platewright-e2e.lock";
+const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
+const SECONDS = Number(process.env.LOAD_SECONDS ?? 10);
+const GOAL = 0.3;
+const root = path.resolve(import.meta.dirname, "../..");
+
+if (!process.env.PW_LOAD_LOCKED) {
+  // Re-run this script under the machine-wide e2e lock (flock(1) waits for the holder).
+  const r = spawnSync("flock", [LOCK, "env", "PW_LOAD_LOCKED=1", path.join(root, "node_modules/.bin/tsx"), path.join(root, "scripts/bench/load.ts")], { stdio: "inherit", cwd: root });
+  process.exit(r.status ?? 1);
+}
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = net.createServer();
+    s.once("error", reject);
+    s.listen(0, "127.0.0.1", () => {
+      const a = s.address();
+      s.close(() => (a && typeof a === "object" ? resolve(a.port) : reject(new Error("no port"))));
+    });
+  });
+}
+
+async function waitHealthy(base: string, ms: number): Promise<boolean> {
+  const until = Date.now() + ms;
+  while (Date.now() < until) {
+    if ((await fetch(`${base}/api/health`).then((r) => r.status, () => 0)) === 200) return true;
+    await new Promise((r) => setTimeout(r, 300));
+  }
+  return false;
+}
+
+/** next-auth credentials sign-in: CSRF token first, then the callback; returns the cookie header. */
+async function signIn(base: string, email: string, password: string): Promise<string> {
+  const csrf = await fetch(`${base}/api/auth/csrf`);
+  const jar = csrf.headers.getSetCookie().map((c) => c.split(";")[0]!);
+  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+  const res = await fetch(`${base}/api/auth/callback/credentials`, {
+    method: "POST",
+    headers: { "content-type": "application/x-www-form-urlencoded", cookie: jar.join("; ") },
+    body: new URLSearchParams({ csrfToken, email, password, json: "true" }),
+    redirect: "manual",
+  });
+  const cookie = [...jar, ...res.headers.getSetCookie().map((c) => c.split(";")[0]!)].join("; ");
+  if (!/session-token=/.test(cookie)) throw new Error(`sign-in as ${email} failed (${res.status})`);
+  return cookie;
+}
+
+/** Nearest-rank percentile (common practice, no source). */
+function percentile(sorted: number[], p: number): number {
+  if (!sorted.length) return NaN;
+  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))]!;
+}
+
+interface Figures {
+  label: string;
+  rps: number;
+  p95: number;
+  total: number;
+  errors: number;
+  non2xx: number;
+}
+
+async function hammer(label: string, url: string, cookie?: string): Promise<Figures> {
+  const latencies: number[] = [];
+  const result = await new Promise<autocannon.Result>((resolve, reject) => {
+    const instance = autocannon({ url, connections: CONNECTIONS, duration: SECONDS, headers: cookie ? { cookie } : {} }, (err, res) => (err ? reject(err) : resolve(res)));
+    instance.on("response", (_c, _status, _bytes, ms) => latencies.push(ms));
+  });
+  latencies.sort((a, b) => a - b);
+  return {
+    label,
+    rps: result.requests.total / (result.duration || SECONDS),
+    p95: percentile(latencies, 95),
+    total: result.requests.total,
+    errors: result.errors + result.timeouts,
+    non2xx: result.non2xx,
+  };
+}
+
+async function main(): Promise<number> {
+  if (!existsSync(path.join(root, ".next/BUILD_ID"))) {
+    console.error("bench:load: no production build in .next. Build first (`npx next build`, or run any spec through scripts/e2e.sh), then run again.");
+    return 2;
+  }
+  const port = await freePort();
+  const base = `http://127.0.0.1:${port}`;
+  const secretFile = path.join(root, ".data/nextauth-secret");
+  const secret = process.env.NEXTAUTH_SECRET ?? (existsSync(secretFile) ? readFileSync(secretFile, "utf8").trim() : randomBytes(32).toString("base64url"));
+  let server: ChildProcess | undefined;
+  try {
+    server = spawn(path.join(root, "node_modules/.bin/next"), ["start", "-p", String(port), "-H", "127.0.0.1"], {
+      cwd: root,
+      stdio: "ignore",
+      env: {
+        ...process.env,
+        NODE_ENV: "production",
+        NEXT_TELEMETRY_DISABLED: "1",
+        NEXTAUTH_URL: base,
+        NEXTAUTH_SECRET: secret,
+        DB_NAME: process.env.DB_NAME ?? "platewright",
+        // Nothing the server does may leave 127.0.0.1.
+        NODE_OPTIONS: `${process.env.NODE_OPTIONS ?? ""} --require ${path.join(root, "tests/support/loopback-only.cjs")}`.trim(),
+      },
+    });
+    if (!(await waitHealthy(base, 90_000))) {
+      console.error(`bench:load: the server on ${base} did not become healthy (is MariaDB up? bash scripts/db.sh start)`);
+      return 1;
+    }
+    const op = demoUsers.find((u) => u.role === "operator");
+    if (!op) throw new Error("no demo operator in db/seed-data.ts");
+    const cookie = await signIn(base, op.email, op.password);
+    const check = await fetch(`${base}/api/queue/board`, { headers: { cookie } });
+    if (check.status !== 200) throw new Error(`GET /api/queue/board as ${op.email}: ${check.status}`);
+    const board = (await check.json()) as Record<string, unknown>;
+    console.log(`bench:load: ${base}, database ${process.env.DB_NAME ?? "platewright"}, board keys: ${Object.keys(board).join(", ")}`);
+    // Warm both routes so neither pays for first compilation of its code paths.
+    for (let i = 0; i < 20; i++) {
+      await fetch(`${base}/api/health`).then((r) => r.arrayBuffer());
+      await fetch(`${base}/api/queue/board`, { headers: { cookie } }).then((r) => r.arrayBuffer());
+    }
+    console.log(`bench:load: ${CONNECTIONS} connections, ${SECONDS} s per route…`);
+    const trivial = await hammer("GET /api/health", `${base}/api/health`);
+    const queue = await hammer("GET /api/queue/board (operator)", `${base}/api/queue/board`, cookie);
+    const rows = [trivial, queue].map((f) => ({ route: f.label, "req/s": f.rps.toFixed(1), "p95 ms": f.p95.toFixed(1), requests: f.total, errors: f.errors, "non-2xx": f.non2xx }));
+    console.table(rows);
+    const ratio = queue.rps / trivial.rps;
+    console.log(`ratio (board / health throughput): ${ratio.toFixed(3)}  goal ≥ ${GOAL}: ${ratio >= GOAL ? "met" : "NOT met"}`);
+    const clean = [trivial, queue].every((f) => f.errors === 0 && f.non2xx === 0);
+    if (!clean) console.error("bench:load: some requests failed (see errors / non-2xx above)");
+    return clean ? 0 : 1;
+  } finally {
+    server?.kill("SIGTERM");
+  }
+}
+
+main().then(
+  (code) => process.exit(code),
+  (e: unknown) => {
+    console.error("bench:load:", e instanceof Error ? e.message : e);
+    process.exit(1);
+  },
+);
