@@ -2,10 +2,11 @@
 // owning member, another member, an operator and an admin, against the answers in role-matrix-table.ts.
 // Expected statuses follow RFC 9110 §15.5 (401 unauthenticated, 403 forbidden, 404 hidden, 422
 // invalid content) and the rules in lib/permissions.ts.
+import bcrypt from "bcryptjs";
 import { expect, test, type APIRequestContext } from "@playwright/test";
 import type mysql from "mysql2/promise";
 import { matrix, serverActions, type Expect, type MatrixRow } from "./role-matrix-table";
-import { apiClients, callers, disposeAll, e2eDb, listRoutes, listServerActionFiles, loadFixtures, type Caller, type Fixtures } from "./security-fixtures";
+import { apiClients, baseURL, callers, disposeAll, e2eDb, listRoutes, listServerActionFiles, loadFixtures, type Caller, type Fixtures } from "./security-fixtures";
 
 let api: Record<Caller, APIRequestContext>;
 let conn: mysql.Connection;
@@ -95,4 +96,49 @@ test("another member never reads Jun's assembly, parts or file, even by guessing
   const hers = await api.other.get("/api/ledger");
   expect(hers.status()).toBe(200);
   expect(await hers.text()).not.toContain("Jun Ishikawa");
+});
+
+/** next-auth credentials sign-in over plain HTTP: CSRF token, then the callback (json=true answers the redirect URL). */
+async function credentialsSignIn(email: string, password: string) {
+  const csrf = await fetch(`${baseURL}/api/auth/csrf`);
+  const jar = csrf.headers.getSetCookie().map((c) => c.split(";")[0]!);
+  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+  const res = await fetch(`${baseURL}/api/auth/callback/credentials`, {
+    method: "POST",
+    headers: { "content-type": "application/x-www-form-urlencoded", cookie: jar.join("; ") },
+    body: new URLSearchParams({ csrfToken, email, password, json: "true" }),
+    redirect: "manual",
+  });
+  const setCookies = res.headers.getSetCookie();
+  const body = (await res.json().catch(() => ({}))) as { url?: string };
+  return { status: res.status, url: decodeURIComponent(body.url ?? ""), setCookies };
+}
+
+test("sign-in over HTTP: after the free failures a correct password is refused for that account; the session cookie is HttpOnly and SameSite=Lax", async () => {
+  test.setTimeout(60_000);
+  // A throwaway account, so the demo accounts other specs sign in with are never locked.
+  const email = `throttle-${Date.now()}@kettlelane.example`;
+  const password = "correct horse battery 42";
+  await conn.query("INSERT INTO users (email, name, password_hash, role) VALUES (?, ?, ?, 'member')", [email, "Throttle Check", await bcrypt.hash(password, 10)]);
+  // lib/server/throttle.ts: 5 free failures in 15 minutes, then each failure locks for 2^(n-5) s; six make it 2 s.
+  for (let i = 0; i < 6; i++) {
+    const r = await credentialsSignIn(email, `wrong-${i}`);
+    expect(r.url).toMatch(/error=/);
+    expect(r.setCookies.some((c) => c.includes("session-token="))).toBe(false);
+  }
+  const locked = await credentialsSignIn(email, password);
+  expect(locked.url).toContain("Too many failed attempts");
+  expect(locked.setCookies.some((c) => c.includes("session-token="))).toBe(false);
+  // Once the lock runs out the right password works (and clears the count for the account and address).
+  await new Promise((r) => setTimeout(r, 3_000));
+  const ok = await credentialsSignIn(email, password);
+  const session = ok.setCookies.find((c) => /session-token=/.test(c));
+  expect(session, `set-cookie: ${ok.setCookies.join(" | ")}`).toBeDefined();
+  // OWASP Session Management Cheat Sheet ("Cookies"): HttpOnly, SameSite. `Secure` is added by next-auth
+  // only when NEXTAUTH_URL is https; the e2e server runs on http://127.0.0.1, so it is absent here.
+  expect(session).toMatch(/;\s*HttpOnly/i);
+  expect(session).toMatch(/;\s*SameSite=Lax/i);
+  expect(session).toMatch(/;\s*Path=\//i);
+  expect(session).not.toMatch(/;\s*Secure/i);
+  await conn.query("DELETE FROM users WHERE email = ?", [email]);
 });

@@ -79,7 +79,8 @@ export async function loadFixtures(owner: APIRequestContext, conn: mysql.Connect
   const junId = await ids("SELECT id FROM users WHERE email = ?", [jun.email]);
   const priyaId = await ids("SELECT id FROM users WHERE email = ?", [priya.email]);
   const plateId = await ids(
-    "SELECT plate_id AS id FROM plate_items GROUP BY plate_id HAVING SUM(member_id = ?) > 0 AND SUM(member_id = ?) = 0 ORDER BY plate_id LIMIT 1",
+    // Started or finished plates first: a re-plan (concurrency.spec) replaces only planned ones.
+    "SELECT pi.plate_id AS id FROM plate_items pi JOIN plates p ON p.id = pi.plate_id GROUP BY pi.plate_id, p.status HAVING SUM(pi.member_id = ?) > 0 AND SUM(pi.member_id = ?) = 0 ORDER BY p.status = 'planned', pi.plate_id LIMIT 1",
     [junId, priyaId],
   );
   return {
@@ -140,4 +141,53 @@ export async function errorMessage(res: { headers(): Record<string, string>; tex
   if (!type.includes("application/json")) return "";
   const body = JSON.parse(text) as { error?: unknown };
   return typeof body.error === "string" ? body.error : "";
+}
+
+/**
+ * A binary STL of `nx × ny` separate boxes (12 facets each), laid out on a grid. Layout from the STL
+ * format description (Burns, Automated Fabrication §6.5; Bourke 1999): 80-byte header, uint32 LE
+ * facet count, 50 bytes per facet (normal, three vertices, uint16 attribute count).
+ */
+export function boxesStl(nx: number, ny: number, size = 5): Buffer {
+  const quads: [number, number, number][][] = [
+    [[0, 0, 0], [0, 1, 0], [1, 1, 0], [1, 0, 0]],
+    [[0, 0, 1], [1, 0, 1], [1, 1, 1], [0, 1, 1]],
+    [[0, 0, 0], [1, 0, 0], [1, 0, 1], [0, 0, 1]],
+    [[0, 1, 0], [0, 1, 1], [1, 1, 1], [1, 1, 0]],
+    [[0, 0, 0], [0, 0, 1], [0, 1, 1], [0, 1, 0]],
+    [[1, 0, 0], [1, 1, 0], [1, 1, 1], [1, 0, 1]],
+  ];
+  const n = nx * ny * 12;
+  const buf = Buffer.alloc(84 + 50 * n);
+  buf.write("platewright security test boxes", 0, "ascii");
+  buf.writeUInt32LE(n, 80);
+  let o = 84;
+  for (let i = 0; i < nx; i++) {
+    for (let j = 0; j < ny; j++) {
+      const ox = i * size * 2;
+      const oy = j * size * 2;
+      for (const q of quads) {
+        for (const tri of [[q[0], q[1], q[2]], [q[0], q[2], q[3]]] as [number, number, number][][]) {
+          o += 12; // zero normal: readers recompute it from the vertex order
+          for (const v of tri) {
+            buf.writeFloatLE(ox + v[0] * size, o);
+            buf.writeFloatLE(oy + v[1] * size, o + 4);
+            buf.writeFloatLE(v[2] * size, o + 8);
+            o += 12;
+          }
+          o += 2;
+        }
+      }
+    }
+  }
+  return buf;
+}
+
+/** Names in the storage temp folder (uploads in flight or left behind). */
+export function tempEntries(storageDir = process.env.STORAGE_DIR ?? ".data/files"): string[] {
+  try {
+    return readdirSync(path.join(storageDir, ".tmp"));
+  } catch {
+    return [];
+  }
 }
