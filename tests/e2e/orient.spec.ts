@@ -48,16 +48,17 @@ test.describe("orientation and split planner", () => {
     await expect(splits).toBeVisible({ timeout: 90_000 });
     await expect(page.getByTestId("split-preview").locator("canvas")).toBeVisible({ timeout: 20_000 });
     await page.getByRole("button", { name: "Accept split" }).click();
-    await expect(page.getByText(/^Split into \d pieces\.$/)).toBeVisible({ timeout: 60_000 });
+    // The server re-cuts and stores the pieces; the part then says what it was split into.
+    await expect(page.getByRole("list", { name: "Pieces" }).getByRole("link")).toHaveCount(2, { timeout: 60_000 });
     await page.reload();
-    const pieces = page.getByRole("list", { name: "Pieces" });
-    await expect(pieces.getByRole("link")).toHaveCount(2);
+    await expect(page.getByText("Split into 2 pieces", { exact: true })).toBeVisible();
+    await expect(page.getByRole("button", { name: "Plan a split" })).toHaveCount(0);
 
     // The pieces are parts of the assembly, each with its own 3D view.
     await page.goto(assemblyUrl);
     await expect(page.getByRole("link", { name: /^tee – piece \d of 2$/ })).toHaveCount(2);
     await page.getByRole("link", { name: "tee – piece 1 of 2" }).click();
     await expect(page.locator('[data-testid="part-viewer"] canvas')).toBeVisible({ timeout: 20_000 });
-    await expect(page.getByText("Cut from")).toBeVisible();
+    await expect(page.getByText(/^Cut from tee: glue the cut faces together\.$/)).toBeVisible();
   });
 });
