@@ -32,12 +32,13 @@ export function SendToWorkshop({ partId, canEdit }: { partId: number; canEdit: b
   return (
     <section aria-labelledby="workshop-h" className="flex flex-col gap-3">
       <h2 id="workshop-h">In the workshop</h2>
+      {/* Outside the form: sending the last free copies hides the form, the confirmation stays. */}
+      {send.isSuccess ? <Notice tone="ok" title={`Sent ${send.data.queued} ${send.data.queued === 1 ? "copy" : "copies"}.`}>Fits {send.data.printers.join(", ")}; about {send.data.gramsEach.toFixed(0)} g each.</Notice> : null}
       {canEdit && free > 0 ? (
         <form noValidate aria-label="Send to the workshop" className="flex flex-col gap-3 rounded-lg border border-rule bg-sheet p-4" onSubmit={(e: FormEvent<HTMLFormElement>) => { e.preventDefault(); send.mutate(formValues(e.currentTarget)); }}>
           <h3 className="font-semibold">Send to the workshop</h3>
           {send.isError && !Object.keys(errors).length ? <Notice tone="fail" title={send.error.message} /> : null}
           {errors.partId ? <Notice tone="fail" title="The workshop cannot take this part.">{errors.partId.join(" ")}</Notice> : null}
-          {send.isSuccess ? <Notice tone="ok" title={`Sent ${send.data.queued} ${send.data.queued === 1 ? "copy" : "copies"}.`}>Fits {send.data.printers.join(", ")}; about {send.data.gramsEach.toFixed(0)} g each.</Notice> : null}
           <div className="grid gap-3 sm:grid-cols-3">
             <Field label="Copies" name="send-quantity" errors={errors.quantity} hint={`${free} not yet sent`}>
               <TextInput id="send-quantity" name="quantity" type="number" min={1} max={free} defaultValue={free} invalid={!!errors.quantity} />

@@ -30,6 +30,7 @@ async function plateOfCopy(page: Page): Promise<number> {
 }
 
 test("send, re-plan, start, finish; the member sees it printed; a failure goes back to the queue; 3MF reads back", async ({ browser }) => {
+  test.setTimeout(240_000); // a long walk through two plates on a shared, busy machine
   const member = await browser.newPage({ storageState: authFile("member") });
   const operatorCtx = await browser.newContext({ storageState: authFile("operator") });
   const operator = await operatorCtx.newPage();
@@ -70,7 +71,7 @@ test("send, re-plan, start, finish; the member sees it printed; a failure goes b
   await expect(table.getByText("Printed").first()).toBeVisible();
 
   // A second part, failed on the printer: its copy is back in the queue with a reprint counted.
-  await partPage(member, "Spacer ring");
+  await partPage(member, "Motor end cap");
   await member.getByRole("spinbutton", { name: "Copies" }).fill("1");
   await member.getByRole("button", { name: "Send to the workshop" }).click();
   await expect(member.getByText("Sent 1 copy.")).toBeVisible();
