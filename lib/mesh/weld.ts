@@ -15,18 +15,19 @@ export class Welder {
   private readonly ox: number;
   private readonly oy: number;
   private readonly oz: number;
+  /** Open-addressing table, 4 ints a slot: the cell's qx, qy, qz and its vertex id + 1 (0 = empty). */
   private table: Int32Array;
   private mask: number;
-  private q: Int32Array;
   vertices: Float32Array;
   count = 0;
   readonly indices: Uint32Array;
   /**
-   * A direct-mapped cache of recently seen cells' ids sits in front of the big table: consecutive
-   * triangles share vertices, so most lookups hit it (128 KB, in cache) and never touch the big
-   * table, whose random accesses cost a cache miss each. A hit is confirmed against q.
+   * A direct-mapped cache of recently seen cells sits in front of the big table, holding the
+   * cell's three ints beside its id + 1 so that a hit reads nothing else: consecutive triangles
+   * share vertices, so most lookups end here (512 KB, in cache) and never pay the big table's
+   * random access. The table keeps its keys in the slot too, so a probe costs one cache miss.
    */
-  private readonly recent = new Int32Array(RECENT).fill(-1);
+  private readonly recent = new Int32Array(RECENT * 4);
 
   constructor(triangles: number, min: readonly number[], max: readonly number[], tolerance: number) {
     const span = Math.max(max[0]! - min[0]!, max[1]! - min[1]!, max[2]! - min[2]!, 0);
@@ -37,29 +38,27 @@ export class Welder {
     const cap = Math.max(16, (triangles >>> 1) + 16);
     let size = 32;
     while (size < cap * 2) size *= 2;
-    this.table = new Int32Array(size);
+    this.table = new Int32Array(size * 4);
     this.mask = size - 1;
-    this.q = new Int32Array(cap * 3);
     this.vertices = new Float32Array(cap * 3);
     this.indices = new Uint32Array(triangles * 3);
   }
 
   private grow(): void {
-    const cap = (this.q.length / 3) * 2;
-    const q = new Int32Array(cap * 3);
-    q.set(this.q);
-    this.q = q;
+    const cap = (this.vertices.length / 3) * 2;
     const v = new Float32Array(cap * 3);
     v.set(this.vertices);
     this.vertices = v;
-    if (this.table.length < cap * 2) {
-      const size = this.table.length * 2;
-      const t = new Int32Array(size);
+    const old = this.table;
+    if (old.length / 4 < cap * 2) {
+      const size = (old.length / 4) * 2;
+      const t = new Int32Array(size * 4);
       const m = size - 1;
-      for (let id = 0; id < this.count; id++) {
-        let h = hash3(q[3 * id]!, q[3 * id + 1]!, q[3 * id + 2]!) & m;
-        while (t[h] !== 0) h = (h + 1) & m;
-        t[h] = id + 1;
+      for (let s = 0; s < old.length; s += 4) {
+        if (old[s + 3] === 0) continue;
+        let h = hash3(old[s]!, old[s + 1]!, old[s + 2]!) & m;
+        while (t[4 * h + 3] !== 0) h = (h + 1) & m;
+        t.set(old.subarray(s, s + 4), 4 * h);
       }
       this.table = t;
       this.mask = m;
@@ -69,42 +68,43 @@ export class Welder {
   /** Weld `count` triangles read from f at base + k·stride (9 floats each); triangle = tri0 + k·triStep. */
   addRange(f: Float32Array, base: number, stride: number, count: number, tri0: number, triStep: number): void {
     const inv = this.inv, ox = this.ox, oy = this.oy, oz = this.oz, idx = this.indices, rc = this.recent;
-    let table = this.table, mask = this.mask, q = this.q, verts = this.vertices, n = this.count;
+    let table = this.table, mask = this.mask, verts = this.vertices, n = this.count;
     for (let k = 0, p = base, o = 3 * tri0; k < count; k++, p += stride, o += 3 * triStep) {
       for (let c = 0; c < 3; c++) {
         const x = f[p + 3 * c]!, y = f[p + 3 * c + 1]!, z = f[p + 3 * c + 2]!;
         // Offsets from the minimum are ≥ 0, so truncating v + 0.5 rounds half up (as Math.round).
         const qx = ((x - ox) * inv + 0.5) | 0, qy = ((y - oy) * inv + 0.5) | 0, qz = ((z - oz) * inv + 0.5) | 0;
         const hh = hash3(qx, qy, qz);
-        const r = hh >>> RECENT_SHIFT;
-        let id = rc[r]!;
-        if (id >= 0 && q[3 * id] === qx && q[3 * id + 1] === qy && q[3 * id + 2] === qz) {
-          idx[o + c] = id;
+        const r = (hh >>> RECENT_SHIFT) << 2;
+        if (rc[r + 3] !== 0 && rc[r] === qx && rc[r + 1] === qy && rc[r + 2] === qz) {
+          idx[o + c] = rc[r + 3]! - 1;
           continue;
         }
         let h = hh & mask;
-        let e = table[h]!;
+        let s = h << 2;
+        let e = table[s + 3]!;
         while (e !== 0) {
-          const j = 3 * e - 3;
-          if (q[j] === qx && q[j + 1] === qy && q[j + 2] === qz) break;
+          if (table[s] === qx && table[s + 1] === qy && table[s + 2] === qz) break;
           h = (h + 1) & mask;
-          e = table[h]!;
+          s = h << 2;
+          e = table[s + 3]!;
         }
+        let id: number;
         if (e === 0) {
-          if (3 * n + 3 > q.length) {
+          if (3 * n + 3 > verts.length) {
             this.count = n;
             this.grow();
-            table = this.table; mask = this.mask; q = this.q; verts = this.vertices;
+            table = this.table; mask = this.mask; verts = this.vertices;
             h = hh & mask;
-            while (table[h] !== 0) h = (h + 1) & mask;
+            while (table[(h << 2) + 3] !== 0) h = (h + 1) & mask;
+            s = h << 2;
           }
           id = n++;
-          table[h] = id + 1;
+          table[s] = qx; table[s + 1] = qy; table[s + 2] = qz; table[s + 3] = id + 1;
           const j = 3 * id;
-          q[j] = qx; q[j + 1] = qy; q[j + 2] = qz;
           verts[j] = x; verts[j + 1] = y; verts[j + 2] = z;
         } else id = e - 1;
-        rc[r] = id;
+        rc[r] = qx; rc[r + 1] = qy; rc[r + 2] = qz; rc[r + 3] = id + 1;
         idx[o + c] = id;
       }
     }
