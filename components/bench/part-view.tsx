@@ -19,6 +19,7 @@ import { FileDrop } from "./file-drop";
 import { PartNumbers } from "./part-numbers";
 import { PartStatusPanel } from "./part-status";
 import { SendToWorkshop } from "@/components/plates/send-form";
+import { splitLinksQuery } from "@/lib/queries/orientation";
 import { LIVE_POLL_MS } from "@/lib/queries/queue";
 
 /** Fetches the stored mesh and reads it in the worker, so the page's thread never parses. */
@@ -123,6 +124,7 @@ function EditForm({ d }: { d: PartDetailWire }) {
 
 export function PartView({ id, initial }: { id: number; initial: PartDetailWire }) {
   const q = useQuery({ ...partQuery(id), initialData: initial, refetchInterval: LIVE_POLL_MS });
+  const split = useQuery(splitLinksQuery(id));
   const d = q.data;
   const a = d.current?.analysis as AnalysisJson | undefined;
   return (
@@ -140,7 +142,11 @@ export function PartView({ id, initial }: { id: number; initial: PartDetailWire 
           <ViewerPanel d={d} />
           {d.canEdit ? <FileDrop target={{ kind: "version", partId: id }} /> : null}
           <PartStatusPanel d={d} />
-          <SendToWorkshop partId={id} canEdit={d.canEdit && d.access !== "workshop"} />
+          {split.data?.pieces.length ? (
+            <p className="rounded-md border border-rule bg-sheet px-4 py-3 text-sm text-ink-soft">This part was split into {split.data.pieces.length} pieces; send the pieces instead.</p>
+          ) : (
+            <SendToWorkshop partId={id} canEdit={d.canEdit && d.access !== "workshop"} />
+          )}
           <section aria-labelledby="history-h" className="flex flex-col gap-2">
             <h2 id="history-h">Mesh history</h2>
             {d.files.length === 0 ? <p className="text-sm text-ink-soft">No uploads yet.</p> : (

@@ -12,6 +12,7 @@ import { AppError } from "./errors";
 import { getAttendedCalendar } from "./hours";
 import { SPOOL_MARGIN } from "./materials";
 import { partAccess, requirePartEdit } from "./parts";
+import { effectiveGeometry } from "./orientation";
 import { ANY_NOZZLE, BED_MARGIN_MM, buildPlanningInput, densities, densityOf, estimateInstance, instanceGeometry, materialKeyOf, planPrinterShapes, timingPrinter, type PartForEstimate } from "./planner";
 import { currentPricing, makeQuote, moveInstances, plateLabel } from "./plates";
 import type { SessionUser } from "./session";
@@ -37,7 +38,8 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
   if (part.fileId === null || part.sizeX === null || part.sizeY === null || part.sizeZ === null) throw invalid("This part has no mesh yet: upload one before sending it to the workshop.", "partId");
   const type = materialKeyOf(part.material);
   if (!type) throw invalid(`The workshop does not print ${part.material}: pick one of ${Object.values(MATERIALS).map((m) => m.name).join(", ")}.`, "partId");
-  const geo = instanceGeometry({ sizeX: part.sizeX, sizeY: part.sizeY, sizeZ: part.sizeZ });
+  // The member's chosen orientation for the current file decides how the part lies on the bed.
+  const geo = instanceGeometry({ sizeX: part.sizeX, sizeY: part.sizeY, sizeZ: part.sizeZ }, await effectiveGeometry(input.partId));
   const { all, shapes } = await planPrinterShapes();
   const check = checkPartInstance({ footprint: geo.footprint, height: geo.height, material: type, nozzle: ANY_NOZZLE }, shapes, BED_MARGIN_MM);
   if (!check.ok) throw invalid(`No printer here can take this part: ${check.reason.replace(/\b(pla|petg|abs|asa|tpu|nylon|pc)\b/g, (m) => m.toUpperCase())}.`, "partId");
