@@ -9,16 +9,19 @@ import path from "node:path";
 import { expect, test, type APIRequestContext } from "@playwright/test";
 import type mysql from "mysql2/promise";
 import { matrix, type MatrixRow } from "./role-matrix-table";
-import { apiClients, baseURL, boxesStl, callers, disposeAll, e2eDb, loadFixtures, rows, tempEntries, type Caller, type Fixtures } from "./security-fixtures";
+import { apiClients, baseURL, boxesStl, callers, disposeAll, e2eDb, loadFixtures, rows, tempEntries, throwawayPart, type Caller, type Fixtures } from "./security-fixtures";
 
 let api: Record<Caller, APIRequestContext>;
 let conn: mysql.Connection;
 let fx: Fixtures;
+/** Uploads go to a part of Jun's own making, so the seeded parts keep their files. */
+let upPart: number;
 
 test.beforeAll(async () => {
   api = await apiClients();
   conn = await e2eDb();
   fx = await loadFixtures(api.owner, conn);
+  upPart = await throwawayPart(api.owner, "Upload checks");
 });
 
 test.afterAll(async () => {
@@ -109,11 +112,11 @@ function partFiles(partId: number) {
 }
 
 test("an upload declared over the limit is refused before any byte is stored", async () => {
-  const files = (await partFiles(fx.partId)).length;
+  const files = (await partFiles(upPart)).length;
   const tmp = tempEntries();
   // The e2e server keeps the default limit (200 MB, lib/env.ts); declare one byte more and send a little.
   const status = await new Promise<number>((resolve, reject) => {
-    const req = http.request(`${baseURL}/api/parts/${fx.partId}/file?name=big.stl`, {
+    const req = http.request(`${baseURL}/api/parts/${upPart}/file?name=big.stl`, {
       method: "PUT",
       headers: { "content-type": "application/octet-stream", "content-length": String(200 * 1024 * 1024 + 1), cookie: "" },
     });
@@ -129,7 +132,7 @@ test("an upload declared over the limit is refused before any byte is stored", a
   expect(status).toBe(401);
   const cookie = (await api.owner.storageState()).cookies.map((c) => `${c.name}=${c.value}`).join("; ");
   const owner = await new Promise<{ status: number; body: string }>((resolve, reject) => {
-    const req = http.request(`${baseURL}/api/parts/${fx.partId}/file?name=big.stl`, {
+    const req = http.request(`${baseURL}/api/parts/${upPart}/file?name=big.stl`, {
       method: "PUT",
       headers: { "content-type": "application/octet-stream", "content-length": String(200 * 1024 * 1024 + 1), cookie },
     });
@@ -146,14 +149,14 @@ test("an upload declared over the limit is refused before any byte is stored", a
   });
   expect(owner.status).toBe(413);
   expect((JSON.parse(owner.body) as { error: string }).error).toMatch(/larger than the upload limit/);
-  expect((await partFiles(fx.partId)).length).toBe(files);
+  expect((await partFiles(upPart)).length).toBe(files);
   expect(tempEntries().filter((t) => !tmp.includes(t))).toEqual([]);
 });
 
 test("a ../ file name stays a label: stored inside storage, served as an attachment with a safe name", async () => {
   const stl = boxesStl(1, 1);
   const evil = "../../../../tmp/pw-escape-check.stl";
-  const res = await api.owner.put(`/api/parts/${fx.partId}/file?name=${encodeURIComponent(evil)}`, { headers: { "content-type": "application/octet-stream" }, data: stl });
+  const res = await api.owner.put(`/api/parts/${upPart}/file?name=${encodeURIComponent(evil)}`, { headers: { "content-type": "application/octet-stream" }, data: stl });
   expect(res.status(), await res.text()).toBe(201);
   const up = (await res.json()) as { fileId: number; sha256: string };
   expect(existsSync("/tmp/pw-escape-check.stl")).toBe(false);
@@ -171,7 +174,7 @@ test("a ../ file name stays a label: stored inside storage, served as an attachm
 
   // A name trying to end the header and add one of its own.
   const inj = 'a".stl\r\nX-Injected: 1\r\n\r\nb.stl';
-  const res2 = await api.owner.put(`/api/parts/${fx.partId}/file?name=${encodeURIComponent(inj)}`, { headers: { "content-type": "application/octet-stream" }, data: stl });
+  const res2 = await api.owner.put(`/api/parts/${upPart}/file?name=${encodeURIComponent(inj)}`, { headers: { "content-type": "application/octet-stream" }, data: stl });
   expect(res2.status()).toBeLessThan(500);
   if (res2.status() === 201) {
     const dl2 = await api.owner.get(`/api/files/${((await res2.json()) as { fileId: number }).fileId}`);
@@ -183,28 +186,28 @@ test("a ../ file name stays a label: stored inside storage, served as an attachm
 });
 
 test("an upload with the wrong content type or a non-mesh body is refused and leaves nothing", async () => {
-  const files = (await partFiles(fx.partId)).length;
+  const files = (await partFiles(upPart)).length;
   const blobs = await rows<{ n: number }>(conn, "SELECT COUNT(*) n FROM mesh_blobs");
   const tmp = tempEntries();
-  const wrongType = await api.owner.put(`/api/parts/${fx.partId}/file?name=x.stl`, { headers: { "content-type": "text/plain" }, data: boxesStl(1, 1) });
+  const wrongType = await api.owner.put(`/api/parts/${upPart}/file?name=x.stl`, { headers: { "content-type": "text/plain" }, data: boxesStl(1, 1) });
   expect(wrongType.status()).toBe(400);
   expect(((await wrongType.json()) as { error: string }).error).toMatch(/octet-stream/);
-  const junk = await api.owner.put(`/api/parts/${fx.partId}/file?name=x.stl`, { headers: { "content-type": "application/octet-stream" }, data: Buffer.from("this is not a mesh at all, just words") });
+  const junk = await api.owner.put(`/api/parts/${upPart}/file?name=x.stl`, { headers: { "content-type": "application/octet-stream" }, data: Buffer.from("this is not a mesh at all, just words") });
   expect(junk.status()).toBe(422);
   expect(((await junk.json()) as { error: string }).error).toMatch(/could not be read/);
-  expect((await partFiles(fx.partId)).length).toBe(files);
+  expect((await partFiles(upPart)).length).toBe(files);
   expect(await rows<{ n: number }>(conn, "SELECT COUNT(*) n FROM mesh_blobs")).toEqual(blobs);
   expect(tempEntries().filter((t) => !tmp.includes(t))).toEqual([]);
 });
 
 test("a request body that ends early stores nothing, leaves no temp file, and the server keeps serving", async () => {
-  const files = (await partFiles(fx.partId)).length;
+  const files = (await partFiles(upPart)).length;
   const tmp = tempEntries();
   const state = await api.owner.storageState();
   const cookie = state.cookies.map((c) => `${c.name}=${c.value}`).join("; ");
   const full = boxesStl(40, 40); // 19 200 facets, 960 084 bytes
   await new Promise<void>((resolve) => {
-    const req = http.request(`${baseURL}/api/parts/${fx.partId}/file?name=cut.stl`, {
+    const req = http.request(`${baseURL}/api/parts/${upPart}/file?name=cut.stl`, {
       method: "PUT",
       headers: { "content-type": "application/octet-stream", "content-length": String(full.length), cookie },
     });
@@ -214,9 +217,9 @@ test("a request body that ends early stores nothing, leaves no temp file, and th
   });
   // Give the server a moment to notice the closed connection and clean up.
   await expect.poll(() => tempEntries().filter((t) => !tmp.includes(t)), { timeout: 10_000 }).toEqual([]);
-  expect((await partFiles(fx.partId)).length).toBe(files);
+  expect((await partFiles(upPart)).length).toBe(files);
   expect((await api.anon.get("/api/health")).status()).toBe(200);
   // The same bytes sent whole are taken.
-  const ok = await api.owner.put(`/api/parts/${fx.partId}/file?name=cut.stl`, { headers: { "content-type": "application/octet-stream" }, data: full });
+  const ok = await api.owner.put(`/api/parts/${upPart}/file?name=cut.stl`, { headers: { "content-type": "application/octet-stream" }, data: full });
   expect(ok.status(), await ok.text()).toBe(201);
 });

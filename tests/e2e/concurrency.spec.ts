@@ -4,17 +4,20 @@
 // Optimistic concurrency with a version column: common practice, no source; 409 per RFC 9110 §15.5.10.
 import { expect, test, type APIRequestContext } from "@playwright/test";
 import type mysql from "mysql2/promise";
-import { apiClients, disposeAll, e2eDb, loadFixtures, rows, type Caller, type Fixtures } from "./security-fixtures";
+import { apiClients, disposeAll, e2eDb, loadFixtures, rows, throwawayPart, type Caller, type Fixtures } from "./security-fixtures";
 
 let api: Record<Caller, APIRequestContext>;
 let conn: mysql.Connection;
 let fx: Fixtures;
+/** Races run on a part of Jun's own making (three drafted copies), so the seeded parts stay as they are. */
+let partId: number;
 const N = 50;
 
 test.beforeAll(async () => {
   api = await apiClients();
   conn = await e2eDb();
   fx = await loadFixtures(api.owner, conn);
+  partId = await throwawayPart(api.owner, "Race rig", 3);
 });
 
 test.afterAll(async () => {
@@ -29,15 +32,15 @@ function tally(statuses: number[]) {
 }
 
 test(`${N} parallel edits of one part: one wins, ${N - 1} get 409, the stored part is the winner's whole request`, async () => {
-  const read = (await (await api.owner.get(`/api/parts/${fx.partId}`)).json()) as { part: { version: number } };
+  const read = (await (await api.owner.get(`/api/parts/${partId}`)).json()) as { part: { version: number } };
   const v = read.part.version;
   const sends = Array.from({ length: N }, (_, k) =>
-    api.owner.patch(`/api/parts/${fx.partId}`, { data: { version: v, notes: `race note ${k}`, colour: `race-${k}` } }).then(async (r) => ({ k, status: r.status(), body: await r.text() })),
+    api.owner.patch(`/api/parts/${partId}`, { data: { version: v, notes: `race note ${k}`, colour: `race-${k}` } }).then(async (r) => ({ k, status: r.status(), body: await r.text() })),
   );
   const results = await Promise.all(sends);
   const wins = results.filter((r) => r.status === 200);
   expect(tally(results.map((r) => r.status))).toEqual({ 200: 1, 409: N - 1 });
-  const [row] = await rows<{ notes: string; colour: string; version: number }>(conn, "SELECT notes, colour, version FROM parts WHERE id = ?", [fx.partId]);
+  const [row] = await rows<{ notes: string; colour: string; version: number }>(conn, "SELECT notes, colour, version FROM parts WHERE id = ?", [partId]);
   const k = wins[0]!.k;
   // Both fields come from the same request.
   expect(row).toEqual({ notes: `race note ${k}`, colour: `race-${k}`, version: v + 1 });
@@ -45,22 +48,22 @@ test(`${N} parallel edits of one part: one wins, ${N - 1} get 409, the stored pa
 });
 
 test(`${N} parallel edits in rounds, each re-reading the version: versions go up by exactly the number of wins`, async () => {
-  const start = ((await (await api.owner.get(`/api/parts/${fx.partId}`)).json()) as { part: { version: number } }).part.version;
+  const start = ((await (await api.owner.get(`/api/parts/${partId}`)).json()) as { part: { version: number } }).part.version;
   let wins = 0;
   // Five rounds of ten: each round reads the version once, so each round has exactly one winner.
   for (let round = 0; round < 5; round++) {
-    const v = ((await (await api.owner.get(`/api/parts/${fx.partId}`)).json()) as { part: { version: number } }).part.version;
-    const st = await Promise.all(Array.from({ length: 10 }, (_, k) => api.owner.patch(`/api/parts/${fx.partId}`, { data: { version: v, notes: `round ${round} ${k}` } }).then((r) => r.status())));
+    const v = ((await (await api.owner.get(`/api/parts/${partId}`)).json()) as { part: { version: number } }).part.version;
+    const st = await Promise.all(Array.from({ length: 10 }, (_, k) => api.owner.patch(`/api/parts/${partId}`, { data: { version: v, notes: `round ${round} ${k}` } }).then((r) => r.status())));
     expect(tally(st)).toEqual({ 200: 1, 409: 9 });
     wins += 1;
   }
-  const end = ((await (await api.owner.get(`/api/parts/${fx.partId}`)).json()) as { part: { version: number } }).part.version;
+  const end = ((await (await api.owner.get(`/api/parts/${partId}`)).json()) as { part: { version: number } }).part.version;
   expect(end - start).toBe(wins);
 });
 
 test(`${N} parallel status changes of one copy: one moves it, one event is recorded`, async () => {
   // A copy the owner may move on now (its allowed targets come with the part).
-  const det = (await (await api.owner.get(`/api/assemblies/${fx.assemblyId}`)).json()) as { parts: { id: number }[] };
+  const det = { parts: [{ id: partId }] };
   let target: { partId: number; instanceId: number; version: number; to: string } | undefined;
   for (const p of det.parts) {
     const d = (await (await api.owner.get(`/api/parts/${p.id}`)).json()) as { instances: { id: number; version: number; next: string[] }[] };
@@ -84,7 +87,7 @@ test(`${N} parallel status changes of one copy: one moves it, one event is recor
 });
 
 test(`${N} parallel priority changes of one queue entry by two operators' roles: one wins`, async () => {
-  const [q] = await rows<{ version: number }>(conn, "SELECT version FROM queue_entries WHERE id = ?", [fx.queueEntryId]);
+  const [q] = await rows<{ version: number; priority: number }>(conn, "SELECT version, priority FROM queue_entries WHERE id = ?", [fx.queueEntryId]);
   const v = q!.version;
   const st = await Promise.all(
     Array.from({ length: N }, (_, k) => (k % 2 ? api.operator : api.admin).patch(`/api/queue/${fx.queueEntryId}`, { data: { version: v, priority: (k % 3) + 1 } }).then((r) => r.status())),
@@ -92,6 +95,8 @@ test(`${N} parallel priority changes of one queue entry by two operators' roles:
   expect(tally(st)).toEqual({ 200: 1, 409: N - 1 });
   const [after] = await rows<{ version: number }>(conn, "SELECT version FROM queue_entries WHERE id = ?", [fx.queueEntryId]);
   expect(after!.version).toBe(v + 1);
+  // Put the seeded entry's priority back for the specs after this one.
+  expect((await api.admin.patch(`/api/queue/${fx.queueEntryId}`, { data: { version: v + 1, priority: q!.priority } })).status()).toBe(200);
 });
 
 test("two re-plans at once (operator and admin) never put a copy on two plates", async () => {

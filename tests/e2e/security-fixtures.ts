@@ -191,3 +191,13 @@ export function tempEntries(storageDir = process.env.STORAGE_DIR ?? ".data/files
     return [];
   }
 }
+
+/** A part of the owner's own, in a fresh assembly, so races and uploads leave the seeded demo parts alone. */
+export async function throwawayPart(owner: APIRequestContext, label: string, quantity = 1): Promise<number> {
+  const asm = await owner.post("/api/assemblies", { data: { name: `${label} ${Date.now().toString(36)}` } });
+  if (asm.status() !== 201) throw new Error(`throwaway assembly: ${asm.status()} ${await asm.text()}`);
+  const { id } = (await asm.json()) as { id: number };
+  const part = await owner.post(`/api/assemblies/${id}/parts`, { data: { name: `${label} part`, quantity, material: "PLA" } });
+  if (part.status() !== 201) throw new Error(`throwaway part: ${part.status()} ${await part.text()}`);
+  return ((await part.json()) as { id: number }).id;
+}
