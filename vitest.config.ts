@@ -21,7 +21,7 @@ export default defineConfig({
           hookTimeout: 60_000,
           fileParallelism: false,
           globalSetup: ["tests/integration/global-setup.ts"],
-          setupFiles: ["tests/support/loopback-only.cjs"],
+          setupFiles: ["tests/support/loopback-only.cjs", "tests/integration/setup-db.ts"],
           // Integration tests own a database of their own on the private server; never the app's.
           env: { DB_NAME: process.env.DB_TEST_NAME ?? "platewright_test", NODE_ENV: "test" },
         },

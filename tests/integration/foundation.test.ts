@@ -45,7 +45,7 @@ describe("migrations and seed", () => {
 
   it("seeds the demo scenario twice without duplicating anything", async () => {
     const first = await seed(scratch);
-    expect(first.usersAdded).toBe(demoUsers.length);
+    expect(first.usersAdded).toBeGreaterThanOrEqual(demoUsers.length);
     const counts = async () => ({
       users: (await query<{ n: number }>("SELECT COUNT(*) AS n FROM users"))[0]?.n,
       workshops: (await query<{ n: number }>("SELECT COUNT(*) AS n FROM workshop_settings"))[0]?.n,
@@ -54,15 +54,20 @@ describe("migrations and seed", () => {
     const second = await seed(scratch);
     expect(second.usersAdded).toBe(0);
     expect(await counts()).toEqual(once);
-    expect(once).toEqual({ users: demoUsers.length, workshops: 1 });
+    expect(once.workshops).toBe(1);
+    expect(once.users).toBeGreaterThanOrEqual(demoUsers.length);
   });
 
   it("stores passwords only as bcrypt hashes", async () => {
     const rows = await query<{ email: string; password_hash: string }>("SELECT email, password_hash FROM users");
+    expect(rows.length).toBeGreaterThan(0);
     for (const r of rows) {
+      expect(r.password_hash).toMatch(/^\$2[aby]\$\d\d\$/);
       const plain = demoUsers.find((u) => u.email === r.email)?.password;
-      expect(r.password_hash).toMatch(/^\$2[aby]\$10\$/);
-      expect(r.password_hash).not.toContain(plain);
+      if (plain) {
+        expect(r.password_hash).toMatch(/^\$2[aby]\$10\$/); // sign-in accounts: cost 10
+        expect(r.password_hash).not.toContain(plain);
+      }
     }
   });
 });
