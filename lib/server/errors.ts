@@ -75,6 +75,9 @@ export async function readJson(req: Request, maxBytes = 1_000_000): Promise<unkn
   if (!type.toLowerCase().startsWith("application/json")) {
     throw new AppError("bad_request", "Send the request body as application/json.");
   }
+  // Refuse a declared oversize body before reading any of it.
+  const declared = Number(req.headers.get("content-length") ?? "");
+  if (Number.isFinite(declared) && declared > maxBytes) throw new AppError("too_large", `The request body is larger than ${maxBytes} bytes.`);
   const text = await req.text().catch(() => {
     throw new AppError("bad_request", "The request body could not be read.");
   });
