@@ -3,7 +3,7 @@
 // back to the queue; the plate's 3MF opens with the mesh engine's reader and holds one object per copy.
 import { expect, test, type APIRequestContext, type Page } from "@playwright/test";
 import { readMesh } from "../../lib/mesh";
-import { authFile } from "./helpers";
+import { authFile, demo } from "./helpers";
 
 async function partPage(page: Page, name: string) {
   await page.goto("/bench/parts");
@@ -31,6 +31,7 @@ async function plateOfCopy(page: Page): Promise<number> {
 
 test("send, re-plan, start, finish; the member sees it printed; a failure goes back to the queue; 3MF reads back", async ({ browser }) => {
   test.setTimeout(240_000); // a long walk through two plates on a shared, busy machine
+  const startedAt = Date.now() - 1000;
   const member = await browser.newPage({ storageState: authFile("member") });
   const operatorCtx = await browser.newContext({ storageState: authFile("operator") });
   const operator = await operatorCtx.newPage();
@@ -69,6 +70,20 @@ test("send, re-plan, start, finish; the member sees it printed; a failure goes b
   const table = member.getByRole("table", { name: "Copies in the workshop" });
   await expect(table.getByText("Shelf C3")).toBeVisible({ timeout: 15_000 });
   await expect(table.getByText("Printed").first()).toBeVisible();
+
+  // The member is told: the outbox delivers "printed and ready to collect" to the fake mailbox.
+  const admin = await browser.newContext({ storageState: authFile("admin") });
+  await expect
+    .poll(
+      async () => {
+        const res = await admin.request.get(`/api/mail/mailbox?to=${encodeURIComponent(demo("member").email)}`);
+        const msgs = (await res.json()) as { subject: string; receivedAt: string; text: string }[];
+        return msgs.some((m) => m.subject === "Printed and ready to collect: Controller lid" && Date.parse(m.receivedAt) >= startedAt && m.text.includes("Shelf C3"));
+      },
+      { timeout: 60_000, intervals: [1000] },
+    )
+    .toBe(true);
+  await admin.close();
 
   // A second part, failed on the printer: its copy is back in the queue with a reprint counted.
   await partPage(member, "Motor end cap");
