@@ -4,6 +4,7 @@ import { spawn, execFileSync, type ChildProcess } from "node:child_process";
 import { mkdirSync, rmSync } from "node:fs";
 import { expect, test } from "@playwright/test";
 import { demo } from "./helpers";
+import { signInAt, waitFor } from "./own-server";
 
 const DB_PORT = "3308";
 const APP_PORT = 3201;
@@ -12,30 +13,6 @@ const dbEnv = { ...process.env, DB_PORT, PW_DB_DIR: "/tmp/pw-faults/mariadb", PW
 
 function db(cmd: "start" | "stop") {
   execFileSync("bash", ["scripts/db.sh", cmd], { env: dbEnv, stdio: "pipe" });
-}
-
-async function waitFor(url: string, ok: (s: number) => boolean, ms: number): Promise<number> {
-  const until = Date.now() + ms;
-  let last = 0;
-  while (Date.now() < until) {
-    last = await fetch(url).then((r) => r.status, () => 0);
-    if (ok(last)) return last;
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  return last;
-}
-
-async function signIn(email: string, password: string): Promise<string> {
-  const csrfRes = await fetch(`${base}/api/auth/csrf`);
-  const cookies = csrfRes.headers.getSetCookie().map((c) => c.split(";")[0]);
-  const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
-  const res = await fetch(`${base}/api/auth/callback/credentials`, {
-    method: "POST",
-    headers: { "content-type": "application/x-www-form-urlencoded", cookie: cookies.join("; ") },
-    body: new URLSearchParams({ csrfToken, email, password, json: "true" }),
-    redirect: "manual",
-  });
-  return [...cookies, ...res.headers.getSetCookie().map((c) => c.split(";")[0])].join("; ");
 }
 
 let app: ChildProcess | undefined;
@@ -68,7 +45,7 @@ test.afterAll(async () => {
 test("requests fail cleanly while MariaDB is down and succeed after it returns, without restarting the app", async () => {
   test.setTimeout(120_000);
   const u = demo("member");
-  const cookie = await signIn(u.email, u.password);
+  const cookie = await signInAt(base, u.email, u.password);
   const me = await fetch(`${base}/api/me`, { headers: { cookie } });
   expect(me.status).toBe(200);
 

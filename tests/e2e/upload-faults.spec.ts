@@ -11,6 +11,7 @@ import { expect, test } from "@playwright/test";
 import mysql from "mysql2/promise";
 import { targetFromEnv } from "../../db/migrate";
 import { demo } from "./helpers";
+import { signInAt, waitFor } from "./own-server";
 import { boxesStl, rows } from "./security-fixtures";
 
 const APP_PORT = 3202;
@@ -23,36 +24,12 @@ const env = { ...process.env, DB_NAME, STORAGE_DIR: STORAGE, UPLOAD_LIMIT_MB: "5
 let app: ChildProcess | undefined;
 let conn: mysql.Connection;
 
-async function waitFor(url: string, ok: (s: number) => boolean, ms: number): Promise<number> {
-  const until = Date.now() + ms;
-  let last = 0;
-  while (Date.now() < until) {
-    last = await fetch(url).then((r) => r.status, () => 0);
-    if (ok(last)) return last;
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  return last;
-}
-
 async function startApp(): Promise<void> {
   app = spawn("node_modules/.bin/next", ["start", "-p", String(APP_PORT), "-H", "127.0.0.1"], {
     env: { ...env, NEXTAUTH_URL: base, NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? "upload-faults-secret-0123456789" },
     stdio: "ignore",
   });
   expect(await waitFor(`${base}/api/health`, (s) => s === 200, 60_000)).toBe(200);
-}
-
-async function signIn(email: string, password: string): Promise<string> {
-  const csrfRes = await fetch(`${base}/api/auth/csrf`);
-  const cookies = csrfRes.headers.getSetCookie().map((c) => c.split(";")[0]);
-  const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
-  const res = await fetch(`${base}/api/auth/callback/credentials`, {
-    method: "POST",
-    headers: { "content-type": "application/x-www-form-urlencoded", cookie: cookies.join("; ") },
-    body: new URLSearchParams({ csrfToken, email, password, json: "true" }),
-    redirect: "manual",
-  });
-  return [...cookies, ...res.headers.getSetCookie().map((c) => c.split(";")[0])].join("; ");
 }
 
 /** Every stored blob under the storage root (the temp folder excluded). */
@@ -95,7 +72,7 @@ async function junPart(): Promise<number> {
 test("killing the app half-way through an upload leaves nothing taken as good; the same bytes upload intact after restart", async () => {
   test.setTimeout(180_000);
   const u = demo("member");
-  const cookie = await signIn(u.email, u.password);
+  const cookie = await signInAt(base, u.email, u.password);
   const partId = await junPart();
   const body = boxesStl(60, 60); // 43 200 facets, 2 160 084 bytes: under the 5 MB limit of this server
   const filesBefore = await rows<{ id: number }>(conn, "SELECT id FROM part_files WHERE part_id = ?", [partId]);
@@ -132,7 +109,7 @@ test("killing the app half-way through an upload leaves nothing taken as good; t
   expect(Number(blobRow!.n)).toBe(0);
 
   // The whole upload after the restart is stored and served byte for byte.
-  const cookie2 = await signIn(u.email, u.password);
+  const cookie2 = await signInAt(base, u.email, u.password);
   const res = await fetch(`${base}/api/parts/${partId}/file?name=killed.stl`, { method: "PUT", headers: { "content-type": "application/octet-stream", cookie: cookie2 }, body: new Uint8Array(body) });
   expect(res.status, await res.clone().text()).toBe(201);
   const up = (await res.json()) as { fileId: number; sha256: string; alreadyStored: boolean; sizeBytes: number };
@@ -152,7 +129,7 @@ test("killing the app half-way through an upload leaves nothing taken as good; t
 test("a streamed body over the limit (no Content-Length) is cut off with 413 and nothing is kept", async () => {
   test.setTimeout(120_000);
   const u = demo("member");
-  const cookie = await signIn(u.email, u.password);
+  const cookie = await signInAt(base, u.email, u.password);
   const partId = await junPart();
   const filesBefore = await rows<{ id: number }>(conn, "SELECT id FROM part_files WHERE part_id = ?", [partId]);
   const tmpBefore = existsSync(path.join(STORAGE, ".tmp")) ? readdirSync(path.join(STORAGE, ".tmp")) : [];
