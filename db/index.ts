@@ -1,5 +1,6 @@
 import { drizzle, type MySql2Database } from "drizzle-orm/mysql2";
 import mysql from "mysql2/promise";
+import { watchWrites } from "./change-watch";
 import * as schema from "./schema";
 import { env } from "@/lib/env";
 
@@ -11,7 +12,8 @@ const g = globalThis as unknown as { __pwPool?: mysql.Pool; __pwDb?: Db };
 export function pool(): mysql.Pool {
   if (!g.__pwPool) {
     const e = env();
-    g.__pwPool = mysql.createPool({
+    // Every write through the pool moves the change counter that read caches check (db/change-watch.ts).
+    g.__pwPool = watchWrites(mysql.createPool({
       host: e.DB_HOST,
       port: e.DB_PORT,
       user: e.DB_USER,
@@ -22,7 +24,7 @@ export function pool(): mysql.Pool {
       enableKeepAlive: true,
       timezone: "Z",
       dateStrings: false,
-    });
+    }));
   }
   return g.__pwPool;
 }

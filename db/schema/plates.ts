@@ -65,7 +65,7 @@ export const plates = mysqlTable(
     createdAt: at("created_at").notNull().default(sql`CURRENT_TIMESTAMP(3)`),
     updatedAt: at("updated_at").notNull().default(sql`CURRENT_TIMESTAMP(3)`),
   },
-  (t) => [index("plates_printer_idx").on(t.printerId, t.plannedStart), index("plates_status_idx").on(t.status)],
+  (t) => [index("plates_printer_idx").on(t.printerId, t.plannedStart), index("plates_status_ended_idx").on(t.status, t.endedAt)],
 );
 
 /**

@@ -3,8 +3,9 @@ import { TZDate } from "@date-fns/tz";
 import { format } from "date-fns";
 import { asc } from "drizzle-orm";
 import { db } from "@/db";
+import { changeGeneration } from "@/db/change-watch";
 import { attendedHours } from "@/db/schema";
-import { createAttendedCalendar, type AttendedCalendar, type AttendedWindow } from "@/lib/calendar/attended-hours";
+import { createAttendedCalendar, type AttendedCalendar, type AttendedWindow, type Interval } from "@/lib/calendar/attended-hours";
 import { can } from "@/lib/permissions";
 import type { AttendedHoursInput } from "@/lib/validation/hours";
 import { AppError } from "./errors";
@@ -24,6 +25,59 @@ export async function getAttendedWindows(): Promise<AttendedWindow[]> {
 export async function getAttendedCalendar(): Promise<AttendedCalendar> {
   const [{ timezone }, windows] = await Promise.all([getWorkshopSettings(), getAttendedWindows()]);
   return createAttendedCalendar(timezone, windows);
+}
+
+/**
+ * A process-wide copy of the calendar for hot read paths (the Floor board polls it). It is dropped
+ * as soon as this process writes anything the calendar is built from (db/change-watch.ts moves its
+ * counter after every such write has completed or committed), so a read after this process's own
+ * write never sees the old week. Writes made by another process (the seed, a restore) are picked up
+ * within CALENDAR_TTL_MS.
+ */
+const CALENDAR_TTL_MS = 5_000;
+type CalendarEntry = { cal: AttendedCalendar; generation: number; at: number; spans: Map<string, Interval[]> };
+let calendarEntry: CalendarEntry | null = null;
+
+async function cachedEntry(): Promise<CalendarEntry> {
+  const generation = changeGeneration();
+  const hit = calendarEntry;
+  if (hit && hit.generation === generation && Date.now() - hit.at < CALENDAR_TTL_MS) return hit;
+  const entry = { cal: await getAttendedCalendar(), generation, at: Date.now(), spans: new Map<string, Interval[]>() };
+  // Kept only when nothing was written while it was read.
+  if (changeGeneration() === generation) calendarEntry = entry;
+  return entry;
+}
+
+export async function cachedAttendedCalendar(): Promise<AttendedCalendar> {
+  return (await cachedEntry()).cal;
+}
+
+const HOUR_MS = 3_600_000;
+
+/**
+ * The attended intervals between two instants, from the cached calendar. The intervals of the
+ * whole hours around [from, to] are computed once and kept with the calendar; each call clips them.
+ */
+export async function cachedOpenIntervals(from: Date, to: Date): Promise<{ timezone: string; open: Interval[] }> {
+  const entry = await cachedEntry();
+  const a = Math.floor(from.getTime() / HOUR_MS) * HOUR_MS;
+  const b = Math.ceil(to.getTime() / HOUR_MS) * HOUR_MS;
+  const key = `${a}:${b}`;
+  let span = entry.spans.get(key);
+  if (!span) {
+    if (entry.spans.size > 32) entry.spans.clear();
+    span = entry.cal.openIntervals(a, b);
+    entry.spans.set(key, span);
+  }
+  const f = from.getTime();
+  const t = to.getTime();
+  const open: Interval[] = [];
+  for (const iv of span) {
+    const start = Math.max(iv.start, f);
+    const end = Math.min(iv.end, t);
+    if (end > start) open.push({ start, end });
+  }
+  return { timezone: entry.cal.timezone, open };
 }
 
 export interface AttendedHoursView {

@@ -9,7 +9,6 @@ import { planWorkshop } from "@/lib/plan/plan";
 import type { PlanMetrics } from "@/lib/plan/schema";
 import { MEMBER_MAX_PRIORITY, type QueuePriorityInput, type QueueSendInput } from "@/lib/validation/queue";
 import { AppError } from "./errors";
-import { getAttendedCalendar } from "./hours";
 import { SPOOL_MARGIN } from "./materials";
 import { partAccess, requirePartEdit } from "./parts";
 import { effectiveGeometry } from "./orientation";
@@ -190,43 +189,5 @@ export async function partSchedule(user: SessionUser, partId: number) {
 
 export type PartScheduleRow = Awaited<ReturnType<typeof partSchedule>>[number];
 
-const HOUR = 3_600_000;
-
-/**
- * The Floor: one lane per printer with its live plates and those ended in the last day, the
- * attended spells over the window drawn, and the waiting list. Operators and admins.
- */
-export async function floorBoard(user: SessionUser, now = new Date()) {
-  if (!can(user.role, "queue:manage")) throw new AppError("forbidden", "Only operators and admins see the Floor.");
-  const d = db();
-  const since = new Date(now.getTime() - 24 * HOUR);
-  // The independent reads go out together: the Floor polls this every 10 s from every open board.
-  const [lanes, loaded, rows, cal, waiting] = await Promise.all([
-    d
-      .select({ id: printers.id, name: printers.name, state: printers.state, bedX: printers.bedXMm, bedY: printers.bedYMm, height: printers.heightMm, note: printers.maintenanceNote, expectedBackAt: printers.expectedBackAt })
-      .from(printers)
-      .orderBy(asc(printers.name)),
-    d.select({ printerId: spools.loadedPrinterId, label: spools.label, colour: spools.colour, material: materials.name, grams: spools.gramsRemaining }).from(spools).innerJoin(materials, eq(materials.id, spools.materialId)).where(sql`${spools.loadedPrinterId} IS NOT NULL`),
-    d
-      .select({ id: plates.id, printerId: plates.printerId, status: plates.status, material: plates.material, colour: plates.colour, plannedStart: plates.plannedStart, plannedEnd: plates.plannedEnd, startedAt: plates.startedAt, endedAt: plates.endedAt, runsUnattended: plates.runsUnattended, caution: plates.caution, estimatedMinutes: plates.estimatedMinutes, estimatedGrams: plates.estimatedGrams, version: plates.version, items: sql<number>`(SELECT COUNT(*) FROM plate_items pi WHERE pi.plate_id = ${plates.id})` })
-      .from(plates)
-      .where(sql`${plates.status} IN ('planned','printing') OR (${plates.endedAt} IS NOT NULL AND ${plates.endedAt} >= ${since})`)
-      .orderBy(asc(plates.plannedStart)),
-    getAttendedCalendar(),
-    listWaiting(user),
-  ]);
-  const lastEnd = Math.max(now.getTime() + 36 * HOUR, ...rows.map((r) => r.plannedEnd.getTime()));
-  const from = new Date(now.getTime() - 6 * HOUR);
-  const to = new Date(Math.min(lastEnd + 2 * HOUR, now.getTime() + 7 * 24 * HOUR));
-  const open = cal.openIntervals(from, to).map((i) => ({ from: new Date(i.start).toISOString(), to: new Date(i.end).toISOString() }));
-  return {
-    now: now.toISOString(),
-    timezone: cal.timezone,
-    window: { from: from.toISOString(), to: to.toISOString() },
-    open,
-    lanes: lanes.map((l) => ({ ...l, spool: loaded.find((s) => s.printerId === l.id) ?? null, plates: rows.filter((r) => r.printerId === l.id).map((r) => ({ ...r, items: Number(r.items), runsUnattended: r.runsUnattended === 1 })) })),
-    ...waiting,
-  };
-}
-
-export type FloorBoard = Awaited<ReturnType<typeof floorBoard>>;
+// The Floor board lives in ./floor-board (one statement for the whole board); re-exported here for its callers.
+export { floorBoard, type FloorBoard } from "./floor-board";

@@ -1,6 +1,7 @@
 import "server-only";
 import { eq } from "drizzle-orm";
-import { getServerSession } from "next-auth";
+import { decode, getToken } from "next-auth/jwt";
+import { cookies } from "next/headers";
 import { forbidden, redirect } from "next/navigation";
 import { cache } from "react";
 import { db } from "@/db";
@@ -17,12 +18,49 @@ export interface SessionUser {
 }
 
 /**
+ * Decoded session cookies of this process, by the cookie's exact value: the token is sealed
+ * (A256GCM), so one value always decodes to the same account id and expiry, and a repeat request
+ * skips the key derivation and decryption. Only the account id is taken from it; expiry is checked
+ * on every use; at most TOKEN_CACHE_MAX entries (oldest dropped first).
+ */
+const TOKEN_CACHE_MAX = 1000;
+const tokenCache = new Map<string, { uid: number; exp: number }>();
+
+/**
+ * The account id in the request's session cookie, or null. This is what `getServerSession` reads
+ * in a server component or route handler (its refreshed cookie is thrown away there), without
+ * running the whole session endpoint for it.
+ */
+async function sessionAccountId(): Promise<number | null> {
+  const secureCookie = authOptions.useSecureCookies ?? process.env.NEXTAUTH_URL?.startsWith("https://") ?? false;
+  const cookieName = authOptions.cookies?.sessionToken?.name ?? `${secureCookie ? "__Secure-" : ""}next-auth.session-token`;
+  // Cookies only (joined when the session was split into chunks); an Authorization header is not a session.
+  const raw = await getToken({ req: { cookies: await cookies(), headers: {} } as unknown as Parameters<typeof getToken>[0]["req"], secureCookie, cookieName, raw: true });
+  if (!raw) return null;
+  const now = Date.now() / 1000;
+  const hit = tokenCache.get(raw);
+  if (hit) {
+    if (hit.exp > now) return hit.uid;
+    tokenCache.delete(raw);
+    return null;
+  }
+  const secret = authOptions.secret ?? process.env.NEXTAUTH_SECRET ?? process.env.AUTH_SECRET;
+  if (!secret) return null;
+  const payload = await decode({ token: raw, secret }).catch(() => null);
+  const uid = Number(payload?.uid);
+  const exp = Number(payload?.exp);
+  if (!Number.isInteger(uid) || uid <= 0 || !Number.isFinite(exp) || exp <= now) return null;
+  if (tokenCache.size >= TOKEN_CACHE_MAX) tokenCache.delete(tokenCache.keys().next().value!);
+  tokenCache.set(raw, { uid, exp });
+  return uid;
+}
+
+/**
  * The signed-in user, re-read from the database on every request: the role comes from the
  * users table, never from anything the client sent, and a deactivated account stops at once.
  */
 export const currentUser = cache(async (): Promise<SessionUser | null> => {
-  const session = await getServerSession(authOptions);
-  const id = session?.user?.id;
+  const id = await sessionAccountId();
   if (!id) return null;
   const [row] = await db()
     .select({ id: users.id, email: users.email, name: users.name, role: users.role, active: users.active })
