@@ -69,19 +69,54 @@ export function errorResponse(e: unknown): NextResponse {
   return NextResponse.json({ error: "Something went wrong on our side.", code: "internal" }, { status: 500 });
 }
 
-/** Reads a JSON body with a clear 400 for anything that is not a JSON object. */
+/**
+ * Reads a request body as text, at most `maxBytes` bytes. A declared Content-Length over the cap is
+ * refused before anything is read; a body without one (chunked) is counted as it streams and the read
+ * is cancelled, with 413, as soon as it passes the cap, so a huge body is never held in memory.
+ */
+export async function readBodyText(req: Request, maxBytes: number): Promise<string> {
+  const tooLarge = () => new AppError("too_large", `The request body is larger than the limit of ${maxBytes} bytes.`);
+  const declared = Number(req.headers.get("content-length") ?? "");
+  if (Number.isFinite(declared) && declared > maxBytes) throw tooLarge();
+  if (!req.body) return "";
+  const reader = req.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    let step: ReadableStreamReadResult<Uint8Array>;
+    try {
+      step = await reader.read();
+    } catch {
+      throw new AppError("bad_request", "The request body could not be read.");
+    }
+    if (step.done) break;
+    size += step.value.byteLength;
+    if (size > maxBytes) {
+      await reader.cancel().catch(() => undefined);
+      throw tooLarge();
+    }
+    chunks.push(step.value);
+  }
+  const all = new Uint8Array(size);
+  let at = 0;
+  for (const c of chunks) {
+    all.set(c, at);
+    at += c.byteLength;
+  }
+  try {
+    return new TextDecoder("utf-8", { fatal: true }).decode(all);
+  } catch {
+    throw new AppError("bad_request", "The request body is not valid UTF-8 text.");
+  }
+}
+
+/** Reads a JSON body with a clear 400 for anything that is not JSON, and 413 past `maxBytes` (counted while reading). */
 export async function readJson(req: Request, maxBytes = 1_000_000): Promise<unknown> {
   const type = req.headers.get("content-type") ?? "";
   if (!type.toLowerCase().startsWith("application/json")) {
     throw new AppError("bad_request", "Send the request body as application/json.");
   }
-  // Refuse a declared oversize body before reading any of it.
-  const declared = Number(req.headers.get("content-length") ?? "");
-  if (Number.isFinite(declared) && declared > maxBytes) throw new AppError("too_large", `The request body is larger than ${maxBytes} bytes.`);
-  const text = await req.text().catch(() => {
-    throw new AppError("bad_request", "The request body could not be read.");
-  });
-  if (text.length > maxBytes) throw new AppError("too_large", `The request body is larger than ${maxBytes} bytes.`);
+  const text = await readBodyText(req, maxBytes);
   try {
     return JSON.parse(text);
   } catch {

@@ -107,6 +107,43 @@ test("every JSON-body route refuses bad input with a 4xx and a message, stores n
   expect(health.status()).toBe(200);
 });
 
+test("a chunked JSON body with no Content-Length is cut off with 413 once it passes the cap, and nothing is stored", async () => {
+  const before = await stateOfDb();
+  const cookie = (await api.owner.storageState()).cookies.map((c) => `${c.name}=${c.value}`).join("; ");
+  // RFC 9112 §7.1: chunked transfer coding, so the server learns the size only by reading. The JSON cap
+  // is 1 000 000 bytes (readJson's default); keep sending 64 KiB chunks of one long string until it answers.
+  const chunk = Buffer.alloc(64 * 1024, "x");
+  const out = await new Promise<{ status: number; body: string; sent: number }>((resolve, reject) => {
+    let sent = 0;
+    let answered = false;
+    const req = http.request(`${baseURL}/api/assemblies`, { method: "POST", headers: { "content-type": "application/json", "transfer-encoding": "chunked", cookie } });
+    req.on("response", (res) => {
+      answered = true;
+      let body = "";
+      res.on("data", (d: Buffer) => (body += d.toString()));
+      res.on("end", () => {
+        resolve({ status: res.statusCode ?? 0, body, sent });
+        req.destroy();
+      });
+    });
+    req.on("error", (e) => (answered ? undefined : reject(e)));
+    const pump = () => {
+      // Up to 64 MiB: a server that buffered the whole body before judging it would never answer in time.
+      while (!answered && sent < 64 * 1024 * 1024) {
+        const more = req.write(sent === 0 ? Buffer.concat([Buffer.from('{"name":"'), chunk]) : chunk);
+        sent += chunk.length;
+        if (!more) return void req.once("drain", pump);
+      }
+    };
+    pump();
+  });
+  expect(out.status, out.body).toBe(413);
+  expect((JSON.parse(out.body) as { error: string }).error).toMatch(/larger than the limit of 1000000 bytes/);
+  expect(out.sent).toBeLessThan(64 * 1024 * 1024);
+  expect(await stateOfDb()).toBe(before);
+  expect((await api.anon.get("/api/health")).status()).toBe(200);
+});
+
 function partFiles(partId: number) {
   return rows<{ id: number }>(conn, "SELECT id FROM part_files WHERE part_id = ?", [partId]);
 }
