@@ -96,22 +96,30 @@ export function* passSteps(segs: Segment[], triangles: number, o: ResolvedOption
   return finishPass(st, () => locateNonFinite(segs));
 }
 
-/** Full analysis as a sequence of steps: single pass, weld, edge census, footprint. */
+/**
+ * Full analysis as a sequence of steps. Each stretch of triangles goes through the single pass and
+ * the weld's streaming phase while it is in cache (the weld needs no bounding box until it
+ * resolves), then the weld is resolved on the pass's bounding box, then edge census and footprint.
+ */
 export function* analysisSteps(segs: Segment[], triangles: number, opts: AnalysisOptions = {}): Generator<Step, { analysis: MeshAnalysis; mesh: IndexedMesh }> {
   const o = resolveOptions(opts);
   if (triangles === 0) throw new MeshReadError("NO_TRIANGLES", "the mesh has no triangles");
-  const pass: PassResult = yield* passSteps(segs, triangles, o);
-  const tol = o.weldTolerance ?? defaultWeldTolerance(pass.bbox.min, pass.bbox.max);
-  const w = new Welder(triangles, pass.bbox.min, pass.bbox.max, tol);
+  const st = new PassState(o, triangles);
+  const zeroArea = (st.zeroArea = new Uint8Array(triangles));
+  const w = new Welder(triangles);
   let done = 0;
   for (const s of segs) {
     s.load?.();
+    passRange(st, s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
     w.addRange(s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
     done += s.count;
-    yield { phase: "weld", fraction: done / triangles };
+    yield { phase: "analyse", fraction: done / triangles };
   }
-  const mesh = w.result();
-  const topo = topology(mesh);
+  const pass = finishPass(st, () => locateNonFinite(segs));
+  const tolerance = o.weldTolerance ?? defaultWeldTolerance(pass.bbox.min, pass.bbox.max);
+  const { census, ...mesh } = w.result({ min: pass.bbox.min, max: pass.bbox.max, tolerance }, { zeroArea });
+  yield { phase: "weld", fraction: 1 };
+  const topo = topology(mesh, census);
   yield { phase: "topology", fraction: 1 };
   const fp = footprint(mesh.vertices, o.up);
   yield { phase: "footprint", fraction: 1 };

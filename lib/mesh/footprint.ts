@@ -52,12 +52,15 @@ class Points {
   }
 }
 
+/** Points as read by the hull's first two passes: point i is (pts[stride·i], pts[stride·i + 1]). */
+type PointArray = Float64Array | Float32Array;
+
 /** Indices of the extreme points at 0°, 45°, …, 315° (counter-clockwise): max x, x + y, y, y − x, then minima. */
-function octagonCorners(pts: Float64Array, n: number): number[] {
+function octagonCorners(pts: PointArray, n: number, stride: number): number[] {
   let i0 = 0, i1 = 0, i2 = 0, i3 = 0, i4 = 0, i5 = 0, i6 = 0, i7 = 0;
   let xHi = -Infinity, sHi = -Infinity, yHi = -Infinity, dHi = -Infinity, xLo = Infinity, sLo = Infinity, yLo = Infinity, dLo = Infinity;
-  for (let i = 0; i < n; i++) {
-    const x = pts[2 * i]!, y = pts[2 * i + 1]!, s = x + y, d = y - x;
+  for (let i = 0, p = 0; i < n; i++, p += stride) {
+    const x = pts[p]!, y = pts[p + 1]!, s = x + y, d = y - x;
     if (x > xHi) { xHi = x; i0 = i; }
     if (s > sHi) { sHi = s; i1 = i; }
     if (y > yHi) { yHi = y; i2 = i; }
@@ -74,10 +77,10 @@ function octagonCorners(pts: Float64Array, n: number): number[] {
  * Points not strictly inside the polygon of `corners` (input point ids, counter-clockwise), each in
  * the bucket of the first edge it is not strictly left of; `null` when the polygon is degenerate.
  */
-function outsideOctagon(pts: Float64Array, n: number, corners: number[]): { c: number[]; buckets: Points[] } | null {
+function outsideOctagon(pts: PointArray, n: number, stride: number, corners: number[]): { c: number[]; buckets: Points[] } | null {
   const c: number[] = [];
   for (const i of corners) {
-    const x = pts[2 * i]!, y = pts[2 * i + 1]!;
+    const x = pts[stride * i]!, y = pts[stride * i + 1]!;
     if (c.length >= 2 && c[c.length - 2] === x && c[c.length - 1] === y) continue; // zero-length edge
     c.push(x, y);
   }
@@ -101,8 +104,8 @@ function outsideOctagon(pts: Float64Array, n: number, corners: number[]): { c: n
   const a6x = e[24]!, a6y = e[25]!, e6x = e[26]!, e6y = e[27]!;
   const a7x = e[28]!, a7y = e[29]!, e7x = e[30]!, e7y = e[31]!;
   const buckets = Array.from({ length: m }, () => new Points(256));
-  for (let i = 0; i < n; i++) {
-    const x = pts[2 * i]!, y = pts[2 * i + 1]!;
+  for (let i = 0, p = 0; i < n; i++, p += stride) {
+    const x = pts[p]!, y = pts[p + 1]!;
     // Strictly left of all eight edges (the common case, unrolled): inside, dropped.
     if (e0x * (y - a0y) - e0y * (x - a0x) > 0 && e1x * (y - a1y) - e1y * (x - a1x) > 0 &&
       e2x * (y - a2y) - e2y * (x - a2x) > 0 && e3x * (y - a3y) - e3y * (x - a3x) > 0 &&
@@ -209,12 +212,14 @@ function monotoneChain(s: Float64Array, m: number): Float64Array {
   return h.slice(0, len);
 }
 
-function hullWith(pts: Float64Array, n: number, corners: number[]): Float64Array {
+function hullWith(pts: PointArray, n: number, stride: number, corners: number[]): Float64Array {
   if (n === 0) return new Float64Array(0);
-  const out = outsideOctagon(pts, n, corners);
+  const out = outsideOctagon(pts, n, stride, corners);
   let cand: Float64Array, m: number;
   if (!out) {
-    cand = pts.slice(0, 2 * n); // all points on a line or one point: never reorder the caller's array
+    // All points on a line or one point: copy them (never reorder the caller's array).
+    cand = new Float64Array(2 * n);
+    for (let i = 0; i < n; i++) { cand[2 * i] = pts[stride * i]!; cand[2 * i + 1] = pts[stride * i + 1]!; }
     m = n;
   } else {
     const keep = new Points(1024);
@@ -235,7 +240,7 @@ function hullWith(pts: Float64Array, n: number, corners: number[]): Float64Array
 /** Convex hull of points given as [x0, y0, x1, y1, …]; counter-clockwise, no collinear points. */
 export function convexHull2d(pts: Float64Array): Float64Array {
   const n = pts.length >>> 1;
-  return hullWith(pts, n, n ? octagonCorners(pts, n) : []);
+  return hullWith(pts, n, 2, n ? octagonCorners(pts, n, 2) : []);
 }
 
 export function polygonArea(p: Float64Array): number {
@@ -248,21 +253,31 @@ export function polygonArea(p: Float64Array): number {
   return a / 2;
 }
 
-/** Footprint of vertices given as a flat xyz array. */
+/**
+ * Footprint of vertices given as a flat xyz array. For up = +Z the plane coordinates are x and y
+ * themselves, so the hull reads the vertex array in place (stride 3); other directions are
+ * projected into a new array first.
+ */
 export function footprint(vertices: Float32Array, up: Vec3): Footprint {
   const { u, v } = planeAxes(up);
   const n = Math.floor(vertices.length / 3);
-  const pts = new Float64Array(2 * n);
-  let amin = Infinity, amax = -Infinity, bmin = Infinity, bmax = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const x = vertices[3 * i]!, y = vertices[3 * i + 1]!, z = vertices[3 * i + 2]!;
-    const a = x * u[0] + y * u[1] + z * u[2], b = x * v[0] + y * v[1] + z * v[2];
-    pts[2 * i] = a; pts[2 * i + 1] = b;
-    if (a < amin) amin = a; if (a > amax) amax = a;
-    if (b < bmin) bmin = b; if (b > bmax) bmax = b;
+  const inPlace = u[0] === 1 && u[1] === 0 && u[2] === 0 && v[0] === 0 && v[1] === 1 && v[2] === 0;
+  let pts: PointArray, stride: number;
+  if (inPlace) { pts = vertices; stride = 3; }
+  else {
+    const q = new Float64Array(2 * n);
+    for (let i = 0; i < n; i++) {
+      const x = vertices[3 * i]!, y = vertices[3 * i + 1]!, z = vertices[3 * i + 2]!;
+      q[2 * i] = x * u[0] + y * u[1] + z * u[2]; q[2 * i + 1] = x * v[0] + y * v[1] + z * v[2];
+    }
+    pts = q; stride = 2;
   }
-  const outline = convexHull2d(pts);
-  if (n === 0) { amin = amax = bmin = bmax = 0; }
+  if (n === 0) return { axisU: u, axisV: v, outline: new Float64Array(0), area: 0, rect: { min: [0, 0], max: [0, 0], area: 0 } };
+  const corners = octagonCorners(pts, n, stride);
+  // The octagon's corners include the extremes in a (max, min: corners 0 and 4) and b (2 and 6).
+  const amax = pts[stride * corners[0]!]!, amin = pts[stride * corners[4]!]!;
+  const bmax = pts[stride * corners[2]! + 1]!, bmin = pts[stride * corners[6]! + 1]!;
+  const outline = hullWith(pts, n, stride, corners);
   return {
     axisU: u,
     axisV: v,

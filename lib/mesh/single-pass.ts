@@ -34,6 +34,12 @@ export class PassState {
   cand: Float64Array = new Float64Array(3 * 256);
   nCand = 0;
   mask: Uint8Array | undefined;
+  /**
+   * When set, triangles of zero area within float32 precision get a 1: |e1 × e2| ≤ 2^-23·|e1|·|e2|
+   * (the sine of the angle at the first corner at or below float32's machine epsilon, IEEE 754
+   * binary32, or an edge of zero length). Collinear corners give 0 at every corner, so one is enough.
+   */
+  zeroArea: Uint8Array | undefined;
   readonly triangles: number;
   constructor(o: ResolvedOptions, triangles: number) {
     this.o = o;
@@ -48,13 +54,16 @@ export class PassState {
   }
 }
 
+/** (2^-23)²: see PassState.zeroArea. */
+const ZERO_SIN2 = 2 ** -46;
+
 /** Accumulate `count` triangles read from f at base + k·stride; triangle index = tri0 + k·triStep. */
 export function passRange(s: PassState, f: Float32Array, base: number, stride: number, count: number, tri0: number, triStep: number): void {
   if (count <= 0) return;
   const [ux, uy, uz] = s.o.up;
   const sinT = s.o.sinTheta;
   const tol = s.o.bedTolerance;
-  const mask = s.mask;
+  const mask = s.mask, zero = s.zeroArea;
   if (Number.isNaN(s.ox)) { s.ox = f[base]!; s.oy = f[base + 1]!; s.oz = f[base + 2]!; }
   const ox = s.ox, oy = s.oy, oz = s.oz;
   let minX = s.minX, minY = s.minY, minZ = s.minZ, maxX = s.maxX, maxY = s.maxY, maxZ = s.maxZ;
@@ -77,8 +86,10 @@ export function passRange(s: PassState, f: Float32Array, base: number, stride: n
     const e1x = bx - ax, e1y = by - ay, e1z = bz - az;
     const e2x = cx - ax, e2y = cy - ay, e2z = cz - az;
     const nx = e1y * e2z - e1z * e2y, ny = e1z * e2x - e1x * e2z, nz = e1x * e2y - e1y * e2x;
-    const n = Math.sqrt(nx * nx + ny * ny + nz * nz);
+    const nn = nx * nx + ny * ny + nz * nz;
+    const n = Math.sqrt(nn);
     area2 += n;
+    if (zero !== undefined && nn <= ZERO_SIN2 * (e1x * e1x + e1y * e1y + e1z * e1z) * (e2x * e2x + e2y * e2y + e2z * e2z)) zero[t] = 1;
     // (a−o)·((b−o)×(c−o)) = (a−o)·(e1×e2): the divergence-theorem term about origin o.
     vol6 += (ax - ox) * nx + (ay - oy) * ny + (az - oz) * nz;
     const ha = ax * ux + ay * uy + az * uz, hb = bx * ux + by * uy + bz * uz, hc = cx * ux + cy * uy + cz * uz;

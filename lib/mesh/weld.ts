@@ -3,127 +3,220 @@ import type { IndexedMesh, TriangleSoup } from "./types";
 /**
  * Welding: vertices whose coordinates fall in the same cell of a grid of pitch `tolerance` become
  * one. Coordinates are quantised once to non-negative integer cells (offset from the bounding-box
- * minimum, rounded half up), hashed with a multiply-xorshift mix into a power-of-two open-addressing
- * table of Int32 vertex ids + 1 (0 = empty, linear probing); each vertex keeps its three cell ints,
- * so a probe compares integers, never floats. Bit-identical coordinates always weld; two points
- * closer than the pitch but in neighbouring cells do not. When the model spans more than 2^30
- * cells along an axis the pitch is widened to fit (so cells stay exact int32 and duplicates still
- * weld). Vertex ids follow first appearance in the input.
+ * minimum, rounded half up) and a cell is hashed with a multiply-xorshift mix. Bit-identical
+ * coordinates always weld; two points closer than the pitch but in neighbouring cells do not.
+ * When the model spans more than 2^30 cells along an axis the pitch is widened to fit (so cells
+ * stay exact int32 and duplicates still weld). Vertex ids follow first appearance in the input.
+ *
+ * It runs in two phases, so that no step makes random reads over a vertex-sized table (on a shared
+ * machine only about the L2 cache can be relied on, and a table of half a million vertices misses
+ * it on nearly every probe):
+ *  1. Streaming: each corner is looked up by its raw coordinate bits in a small direct-mapped
+ *     cache of recently seen corners (bits + id, 512 KB). A hit takes that id (equal bits are the
+ *     same cell, so nothing is quantised); a miss quantises the corner and appends a *tentative*
+ *     vertex (its cell, hash and coordinates, written in order) and takes the new tentative id.
+ *     Meshes list neighbouring triangles near each other, so most corners hit; a vertex that was
+ *     evicted, or that comes back with other bits in the same cell, simply gets another tentative id.
+ *     The same loop flags triangles of zero area (the edge census counts them as degenerate).
+ *  2. Resolution: tentative vertices are bucketed by the top bits of their hash (a counting sort
+ *     that keeps their order), and each bucket (~128 entries) is de-duplicated with a tiny hash
+ *     table that stays in L1. Every duplicate points at the first tentative id of its cell, the
+ *     survivors are numbered in order (= first appearance), and the corner ids are rewritten in one
+ *     sequential pass.
  */
 export class Welder {
-  private readonly inv: number;
-  private readonly ox: number;
-  private readonly oy: number;
-  private readonly oz: number;
-  /** Open-addressing table, 4 ints a slot: the cell's qx, qy, qz and its vertex id + 1 (0 = empty). */
-  private table: Int32Array;
-  private mask: number;
-  vertices: Float32Array;
-  count = 0;
-  readonly indices: Uint32Array;
-  /**
-   * A direct-mapped cache of recently seen cells sits in front of the big table, holding the
-   * cell's three ints beside its id + 1 so that a hit reads nothing else: consecutive triangles
-   * share vertices, so most lookups end here (512 KB, in cache) and never pay the big table's
-   * random access. The table keeps its keys in the slot too, so a probe costs one cache miss.
-   */
+  /** Direct-mapped cache of recent corners, 4 ints a slot: the x, y, z float bits and tentative id + 1 (0 = empty). */
   private readonly recent = new Int32Array(RECENT * 4);
+  /** Tentative vertices: their coordinates (3 floats per tentative id), in order of appearance. */
+  private coords: Float32Array;
+  private tentative = 0;
+  readonly indices: Uint32Array;
 
-  constructor(triangles: number, min: readonly number[], max: readonly number[], tolerance: number) {
-    const span = Math.max(max[0]! - min[0]!, max[1]! - min[1]!, max[2]! - min[2]!, 0);
-    const pitch = Math.max(tolerance, span / 2 ** 30);
-    this.inv = 1 / pitch;
-    this.ox = min[0]!; this.oy = min[1]!; this.oz = min[2]!;
-    // Closed meshes have about half as many vertices as triangles; start there and grow.
-    const cap = Math.max(16, (triangles >>> 1) + 16);
-    let size = 32;
-    while (size < cap * 2) size *= 2;
-    this.table = new Int32Array(size * 4);
-    this.mask = size - 1;
-    this.vertices = new Float32Array(cap * 3);
+  constructor(triangles: number) {
+    // Closed meshes have about half as many vertices as triangles, plus some re-seen ones; grow past that.
+    const cap = Math.max(16, (triangles >>> 1) + (triangles >>> 3) + 16);
+    this.coords = new Float32Array(cap * 3);
     this.indices = new Uint32Array(triangles * 3);
   }
 
   private grow(): void {
-    const cap = (this.vertices.length / 3) * 2;
-    const v = new Float32Array(cap * 3);
-    v.set(this.vertices);
-    this.vertices = v;
-    const old = this.table;
-    if (old.length / 4 < cap * 2) {
-      const size = (old.length / 4) * 2;
-      const t = new Int32Array(size * 4);
-      const m = size - 1;
-      for (let s = 0; s < old.length; s += 4) {
-        if (old[s + 3] === 0) continue;
-        let h = hash3(old[s]!, old[s + 1]!, old[s + 2]!) & m;
-        while (t[4 * h + 3] !== 0) h = (h + 1) & m;
-        t.set(old.subarray(s, s + 4), 4 * h);
-      }
-      this.table = t;
-      this.mask = m;
-    }
+    const c = new Float32Array(this.coords.length * 2);
+    c.set(this.coords);
+    this.coords = c;
   }
 
-  /** Weld `count` triangles read from f at base + k·stride (9 floats each); triangle = tri0 + k·triStep. */
+  /**
+   * Weld `count` triangles read from f at base + k·stride (9 floats each); triangle = tri0 + k·triStep.
+   * Needs no bounding box: cells are only computed when the tentative vertices are resolved.
+   */
   addRange(f: Float32Array, base: number, stride: number, count: number, tri0: number, triStep: number): void {
-    const inv = this.inv, ox = this.ox, oy = this.oy, oz = this.oz, idx = this.indices, rc = this.recent;
-    let table = this.table, mask = this.mask, verts = this.vertices, n = this.count;
+    const idx = this.indices, rc = this.recent;
+    const bits = new Int32Array(f.buffer, f.byteOffset, f.length);
+    let coords = this.coords, t = this.tentative, cap = coords.length / 3;
     for (let k = 0, p = base, o = 3 * tri0; k < count; k++, p += stride, o += 3 * triStep) {
       for (let c = 0; c < 3; c++) {
-        const x = f[p + 3 * c]!, y = f[p + 3 * c + 1]!, z = f[p + 3 * c + 2]!;
-        // Offsets from the minimum are ≥ 0, so truncating v + 0.5 rounds half up (as Math.round).
-        const qx = ((x - ox) * inv + 0.5) | 0, qy = ((y - oy) * inv + 0.5) | 0, qz = ((z - oz) * inv + 0.5) | 0;
-        const hh = hash3(qx, qy, qz);
-        const r = (hh >>> RECENT_SHIFT) << 2;
-        if (rc[r + 3] !== 0 && rc[r] === qx && rc[r + 1] === qy && rc[r + 2] === qz) {
+        const j = p + 3 * c;
+        const bx = bits[j]!, by = bits[j + 1]!, bz = bits[j + 2]!;
+        const r = recentSlot(bx, by, bz);
+        if (rc[r] === bx && rc[r + 1] === by && rc[r + 2] === bz && rc[r + 3] !== 0) {
           idx[o + c] = rc[r + 3]! - 1;
           continue;
         }
-        let h = hh & mask;
-        let s = h << 2;
-        let e = table[s + 3]!;
-        while (e !== 0) {
-          if (table[s] === qx && table[s + 1] === qy && table[s + 2] === qz) break;
-          h = (h + 1) & mask;
-          s = h << 2;
-          e = table[s + 3]!;
+        if (t === cap) {
+          this.tentative = t;
+          this.grow();
+          coords = this.coords; cap = coords.length / 3;
         }
-        let id: number;
-        if (e === 0) {
-          if (3 * n + 3 > verts.length) {
-            this.count = n;
-            this.grow();
-            table = this.table; mask = this.mask; verts = this.vertices;
-            h = hh & mask;
-            while (table[(h << 2) + 3] !== 0) h = (h + 1) & mask;
-            s = h << 2;
-          }
-          id = n++;
-          table[s] = qx; table[s + 1] = qy; table[s + 2] = qz; table[s + 3] = id + 1;
-          const j = 3 * id;
-          verts[j] = x; verts[j + 1] = y; verts[j + 2] = z;
-        } else id = e - 1;
-        rc[r] = qx; rc[r + 1] = qy; rc[r + 2] = qz; rc[r + 3] = id + 1;
+        const id = t++;
+        coords[3 * id] = f[j]!; coords[3 * id + 1] = f[j + 1]!; coords[3 * id + 2] = f[j + 2]!;
+        rc[r] = bx; rc[r + 1] = by; rc[r + 2] = bz; rc[r + 3] = id + 1;
         idx[o + c] = id;
       }
     }
-    this.count = n;
+    this.tentative = t;
   }
 
-  result(): IndexedMesh {
-    return { vertices: this.vertices.slice(0, this.count * 3), indices: this.indices };
+  /**
+   * Resolve tentative vertices into welded ones; call once, after the last addRange. With
+   * `census`, the same pass that rewrites the corner ids also counts degenerate triangles and the
+   * half-edges each vertex owns (as the lower id), which the edge census needs (see topology.ts).
+   */
+  result(grid: WeldGrid): IndexedMesh;
+  result(grid: WeldGrid, census: { zeroArea: Uint8Array }): IndexedMesh & { census: CensusStart };
+  result(grid: WeldGrid, census?: { zeroArea: Uint8Array }): IndexedMesh & { census?: CensusStart } {
+    const n = this.tentative, coords = this.coords, idx = this.indices;
+    if (n === 0) return { vertices: new Float32Array(0), indices: idx, ...(census ? { census: { start: new Uint32Array(1), degenerate: 0, scratch: new Int32Array(idx.length), scratch2: new Int32Array(1) } } : {}) };
+    // Cells: offsets from the minimum are ≥ 0, so truncating v + 0.5 rounds half up (as Math.round).
+    // They are recomputed from the coordinates in each pass below rather than stored (fresh memory
+    // costs more than the arithmetic: every new page is a fault).
+    const { min, max } = grid;
+    const span = Math.max(max[0]! - min[0]!, max[1]! - min[1]!, max[2]! - min[2]!, 0);
+    const inv = 1 / Math.max(grid.tolerance, span / 2 ** 30);
+    const ox = min[0]!, oy = min[1]!, oz = min[2]!;
+    // Bucket by the cell hash's top bits (counting sort, stable), carrying each cell and its tentative id.
+    let bits = 0;
+    while (bits < 24 && n >>> bits > BUCKET_TARGET) bits++;
+    const shift = 32 - bits, nb = 1 << bits;
+    const start = new Int32Array(nb + 1);
+    if (bits > 0) {
+      for (let i = 0; i < n; i++) {
+        const qx = ((coords[3 * i]! - ox) * inv + 0.5) | 0, qy = ((coords[3 * i + 1]! - oy) * inv + 0.5) | 0, qz = ((coords[3 * i + 2]! - oz) * inv + 0.5) | 0;
+        start[(hash3(qx, qy, qz) >>> shift) + 1]!++;
+      }
+    } else start[1] = n;
+    let largest = 0;
+    for (let b = 0; b < nb; b++) { largest = Math.max(largest, start[b + 1]!); start[b + 1]! += start[b]!; }
+    // Sized for the edge census too, which reuses it (see topology.ts).
+    const sorted = new Int32Array(Math.max(4 * n, census ? idx.length : 0));
+    {
+      const fill = start.slice(0, nb);
+      for (let i = 0; i < n; i++) {
+        const qx = ((coords[3 * i]! - ox) * inv + 0.5) | 0, qy = ((coords[3 * i + 1]! - oy) * inv + 0.5) | 0, qz = ((coords[3 * i + 2]! - oz) * inv + 0.5) | 0;
+        const s = 4 * (bits > 0 ? fill[hash3(qx, qy, qz) >>> shift]!++ : fill[0]!++);
+        sorted[s] = qx; sorted[s + 1] = qy; sorted[s + 2] = qz; sorted[s + 3] = i;
+      }
+    }
+    // Per bucket, first tentative id of each cell (entries are in id order, so the first seen is the smallest).
+    let size = 16;
+    while (size < 2 * largest) size *= 2;
+    const mask = size - 1;
+    const slotOf = new Int32Array(size);
+    const stamp = new Int32Array(size);
+    const map = new Int32Array(n); // tentative id → first tentative id of its cell, then → final id
+    for (let b = 0; b < nb; b++) {
+      const gen = b + 1;
+      for (let e = start[b]!, end = start[b + 1]!; e < end; e++) {
+        const qx = sorted[4 * e]!, qy = sorted[4 * e + 1]!, qz = sorted[4 * e + 2]!, id = sorted[4 * e + 3]!;
+        let s = hash3(qx, qy, qz) & mask;
+        let first = id;
+        while (stamp[s] === gen) {
+          const j = 4 * slotOf[s]!;
+          if (sorted[j] === qx && sorted[j + 1] === qy && sorted[j + 2] === qz) { first = sorted[j + 3]!; break; }
+          s = (s + 1) & mask;
+        }
+        if (first === id) { stamp[s] = gen; slotOf[s] = e; }
+        map[id] = first;
+      }
+    }
+    // Number the survivors in order (a duplicate's first id is smaller, so already renumbered) and
+    // compact their coordinates in place (a survivor's new slot is never after its old one).
+    let count = 0;
+    for (let i = 0; i < n; i++) {
+      if (map[i] === i) {
+        coords[3 * count] = coords[3 * i]!; coords[3 * count + 1] = coords[3 * i + 1]!; coords[3 * count + 2] = coords[3 * i + 2]!;
+        map[i] = count++;
+      } else map[i] = map[map[i]!]!;
+    }
+    // A view when little is wasted (no copy, no fresh pages), else a tight copy.
+    const vertices = 4 * 3 * count >= 3 * coords.length ? coords.subarray(0, 3 * count) : coords.slice(0, 3 * count);
+    if (!census) {
+      if (count < n) for (let i = 0; i < idx.length; i++) idx[i] = map[idx[i]!]!;
+      return { vertices, indices: idx };
+    }
+    // Rewrite ids and count, per vertex, the half-edges whose lower end it is (branch-free min).
+    const own = new Uint32Array(count + 1);
+    const ix = new Int32Array(idx.buffer, idx.byteOffset, idx.length);
+    const zero = census.zeroArea;
+    let degenerate = 0;
+    for (let t = 0, o = 0; o < ix.length; t++, o += 3) {
+      const a = map[ix[o]!]!, b = map[ix[o + 1]!]!, c = map[ix[o + 2]!]!;
+      ix[o] = a; ix[o + 1] = b; ix[o + 2] = c;
+      if (a === b || b === c || a === c) { degenerate++; continue; }
+      degenerate += zero[t]!;
+      own[a + ((b - a) & ((b - a) >> 31)) + 1]!++;
+      own[b + ((c - b) & ((c - b) >> 31)) + 1]!++;
+      own[c + ((a - c) & ((a - c) >> 31)) + 1]!++;
+    }
+    for (let i = 0; i < count; i++) own[i + 1]! += own[i]!;
+    return { vertices, indices: idx, census: { start: own, degenerate, scratch: sorted, scratch2: map } };
   }
+}
+
+/** The weld grid: cells of pitch `tolerance` from the bounding-box minimum (widened to keep 2^30 cells an axis). */
+export interface WeldGrid {
+  min: readonly number[];
+  max: readonly number[];
+  tolerance: number;
+}
+
+/** What the weld's last pass hands the edge census: per-vertex half-edge offsets and the degenerate count. */
+export interface CensusStart {
+  /** start[v]…start[v+1]: slots of the half-edges whose lower vertex id is v (prefix sums, length vertices + 1). */
+  start: Uint32Array;
+  /** Triangles with a repeated vertex or zero area. */
+  degenerate: number;
+  /** Free working memory for the census: at least 3 ints per triangle, and at least one per vertex. */
+  scratch: Int32Array;
+  scratch2: Int32Array;
 }
 
 const RECENT_BITS = 15;
 const RECENT = 1 << RECENT_BITS;
 const RECENT_SHIFT = 32 - RECENT_BITS;
+/**
+ * Slot of a corner in the recent cache (4 ints a slot), from its raw float bits: the words are
+ * rotated apart before they are summed, so sign bits (which mirror images flip) never cancel, then
+ * one multiply spreads them into the top bits. Cheaper than hash3; it only has to spread a few
+ * thousand live corners over the cache.
+ */
+function recentSlot(x: number, y: number, z: number): number {
+  return (Math.imul(x + ((y << 11) | (y >>> 21)) + ((z << 22) | (z >>> 10)), 0x9e3779b1) >>> RECENT_SHIFT) << 2;
+}
 
+/** Tentative vertices per resolution bucket: small enough that a bucket's table sits in L1. */
+const BUCKET_TARGET = 128;
+
+/**
+ * Hash of three int32 (cell ints or raw float bits): each word is folded in after an xorshift and
+ * a multiply of what came before. Raw float bits of symmetric models differ only in sign bits and
+ * in a few mantissa bits, which an xor of three products maps onto few values (mirror pairs and
+ * rotated copies shared cache slots); this keeps them spread like random keys.
+ */
 function hash3(x: number, y: number, z: number): number {
-  let h = Math.imul(x, 0x9e3779b1) ^ Math.imul(y, 0x85ebca77) ^ Math.imul(z, 0xc2b2ae3d);
-  h ^= h >>> 15;
-  return Math.imul(h, 0x2c1b3c6d) ^ (h >>> 12);
+  let h = Math.imul(x, 0x9e3779b1);
+  h = Math.imul(h ^ (h >>> 16) ^ y, 0x85ebca77);
+  h = Math.imul(h ^ (h >>> 16) ^ z, 0xc2b2ae3d);
+  return h ^ (h >>> 16);
 }
 
 /** Default pitch: one millionth of the bounding-box diagonal (keeps cells within int32). */
@@ -149,7 +242,7 @@ export function weld(soup: TriangleSoup, tolerance?: number): IndexedMesh {
   const n = Math.floor(soup.positions.length / 9);
   if (n === 0) return { vertices: new Float32Array(0), indices: new Uint32Array(0) };
   const { min, max } = soupBounds(soup.positions);
-  const w = new Welder(n, min, max, tolerance ?? defaultWeldTolerance(min, max));
+  const w = new Welder(n);
   w.addRange(soup.positions, 0, 9, n, 0, 1);
-  return w.result();
+  return w.result({ min, max, tolerance: tolerance ?? defaultWeldTolerance(min, max) });
 }
