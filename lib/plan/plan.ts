@@ -1,13 +1,16 @@
 import { createAttendedCalendar, type AttendedCalendar } from "@/lib/calendar/attended-hours";
 import { checkPartInstance } from "./check-part";
 import { rankInstances, type PartInstance } from "./fair-share";
-import { packPlates } from "./pack";
-import { schedulePlates, type Timed } from "./schedule";
+import { packPlates, type PackedPlate } from "./pack";
+import { plateLateness, schedulePlates, type Timed } from "./schedule";
 import type { Plate, PlanInstance, PlanMetrics, PlanOutput, Printer, Unplaced } from "./schema";
 
 const MIN = 60_000;
 
 export type PlanOptions = { balanceTail?: boolean; loadShare?: number | null; maxImprovements?: number };
+
+/** Caps on plate time tried, as shares of the average printer load (see planWorkshop). */
+export const LOAD_SHARES: readonly (number | null)[] = [1, 1 / 2, 1 / 3];
 
 export const UNATTENDED_CAUTION =
   "This plate is still printing at closing time and runs unattended. Unattended and overnight printing is a fire risk: " +
@@ -41,14 +44,47 @@ export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): Pla
 
   const spell = calendar.longestSpellMinutes();
   const alwaysOpen = calendar.closingAfter(nowMs) === null && !neverOpen;
-  const packed = packPlates(accepted, inst.printers, (x, p) => allowed.get(x.part.id)!.has(p.id), {
-    marginMm: inst.margin_mm,
-    gapMm: inst.gap_mm,
-    spellCapMinutes: alwaysOpen ? null : spell,
-    balanceTail: options.balanceTail ?? false,
-    loadShare: options.loadShare === undefined ? 1 / 3 : options.loadShare,
+  const ctx = { printers: inst.printers, calendar, nowMs, marginMm: inst.margin_mm };
+  // The cap on plate time (a share of the average printer load) is a trade: long plates are fuller,
+  // short ones spread the work better. Unless the caller fixes it, each share in LOAD_SHARES is
+  // packed and given a quick schedule (no local search); the plan keeps the one with the fewest
+  // plates among those within a small tolerance of the least lateness and the earliest finish.
+  const share = accepted.reduce((s, x) => s + x.part.minutes, 0) / inst.printers.length;
+  type Trial = { packed: PackedPlate[]; unscheduled: number; lateness: number; span: number; longest: number };
+  let previous: Trial | null = null;
+  const trials = (options.loadShare !== undefined ? [options.loadShare] : LOAD_SHARES).map((loadShare): Trial => {
+    // A cap no plate of the previous (looser) trial reached would pack the same plates again.
+    if (previous && loadShare !== null && previous.longest <= loadShare * share) return previous;
+    const packed = packPlates(accepted, inst.printers, (x, p) => allowed.get(x.part.id)!.has(p.id), {
+      marginMm: inst.margin_mm,
+      gapMm: inst.gap_mm,
+      spellCapMinutes: alwaysOpen ? null : spell,
+      balanceTail: options.balanceTail ?? false,
+      loadShare,
+      chunkFill: 0.92,
+      nowMs,
+      balanceRounds: 4,
+    });
+    const quick = schedulePlates(packed, ctx, 0);
+    let lateness = 0;
+    let finish = nowMs;
+    for (const t of quick.timed) {
+      lateness += plateLateness(t.plate, t.end);
+      finish = Math.max(finish, t.end);
+    }
+    const byId = new Map(inst.printers.map((p) => [p.id, p]));
+    const longest = Math.max(0, ...packed.map((p) => byId.get(p.packedFor)!.startup_minutes + p.partMinutes));
+    previous = { packed, unscheduled: quick.unscheduled.length, lateness, span: finish - nowMs, longest };
+    return previous;
   });
-  const { timed, unscheduled } = schedulePlates(packed, { printers: inst.printers, calendar, nowMs, marginMm: inst.margin_mm }, options.maxImprovements);
+  const fewestUnscheduled = Math.min(...trials.map((t) => t.unscheduled));
+  const pool = trials.filter((t) => t.unscheduled === fewestUnscheduled);
+  const leastLate = Math.min(...pool.map((t) => t.lateness));
+  const earliest = Math.min(...pool.filter((t) => t.lateness <= leastLate * 1.05 + 1).map((t) => t.span));
+  const packed = pool
+    .filter((t) => t.lateness <= leastLate * 1.05 + 1 && t.span <= earliest * 1.03 + 1)
+    .reduce((best, t) => (t.packed.length < best.packed.length ? t : best)).packed;
+  const { timed, unscheduled } = schedulePlates(packed, ctx, options.maxImprovements);
   for (const plate of unscheduled) {
     for (const it of plate.items) {
       unplaced.push({ part: it.inst.part.id, instance: it.inst.instance, reason: "no attended start time clear of the printers' unavailable windows was found" });

@@ -35,10 +35,10 @@ export function plateMinutes(plate: PackedPlate, p: Printer, changeover: boolean
  * printer's unavailable windows. null when no such time exists within the calendar's reach.
  */
 export function earliestStart(ctx: ScheduleContext, p: Printer, t: number, minutes: number): number | null {
-  const windows = p.unavailable.map((w) => [Date.parse(w.from), Date.parse(w.to)] as const);
+  const windows = windowsOf(p);
   let at = Math.max(t, ctx.nowMs);
   for (let guard = 0; guard < 10_000; guard++) {
-    const open = memo(ctx, "n", at, () => ctx.calendar.nextOpening(at));
+    const open = nextOpening(ctx, at);
     if (open === null) return null;
     const end = open + minutes * MIN;
     const clash = windows.find(([from, to]) => open < to && from < end);
@@ -48,23 +48,59 @@ export function earliestStart(ctx: ScheduleContext, p: Printer, t: number, minut
   return null;
 }
 
-/** When can the next plate start after one ends at e? Someone must take it off first. */
-function readyAfter(ctx: ScheduleContext, e: number): number {
-  const open = memo(ctx, "o", e, () => (ctx.calendar.isOpen(e) ? 1 : 0));
-  return open ? e : (memo(ctx, "n", e, () => ctx.calendar.nextOpening(e)) ?? Number.POSITIVE_INFINITY);
+// Parsed times, kept per object: the local search asks for them many thousand times.
+const windowCache = new WeakMap<Printer, (readonly [number, number])[]>();
+function windowsOf(p: Printer): (readonly [number, number])[] {
+  let w = windowCache.get(p);
+  if (!w) windowCache.set(p, (w = p.unavailable.map((u) => [Date.parse(u.from), Date.parse(u.to)] as const)));
+  return w;
+}
+const dueCache = new WeakMap<object, number | null>();
+function dueOf(part: PackedPlate["items"][number]["inst"]["part"]): number | null {
+  let d = dueCache.get(part);
+  if (d === undefined) dueCache.set(part, (d = part.due === null ? null : Date.parse(part.due)));
+  return d;
 }
 
-// The local search re-times the same instants many times; calendar answers are pure, so keep them.
-const caches = new WeakMap<AttendedCalendar, Map<string, number | null>>();
-function memo(ctx: ScheduleContext, kind: string, t: number, f: () => number | null): number | null {
-  let c = caches.get(ctx.calendar);
-  if (!c) caches.set(ctx.calendar, (c = new Map()));
-  const key = kind + t;
-  if (c.has(key)) return c.get(key)!;
-  const v = f();
-  if (c.size > 200_000) c.clear();
-  c.set(key, v);
-  return v;
+/** When can the next plate start after one ends at e? Someone must take it off first. */
+function readyAfter(ctx: ScheduleContext, e: number): number {
+  return nextOpening(ctx, e) ?? Number.POSITIVE_INFINITY;
+}
+
+// The local search asks the calendar about thousands of instants; its open spells over the next
+// weeks are read once per (calendar, now) and searched by bisection. Outside that reach the
+// calendar itself answers.
+const SPELL_REACH_MS = 120 * 86_400_000;
+type Spells = { from: number; to: number; starts: number[]; ends: number[] };
+const spellCache = new WeakMap<AttendedCalendar, Map<number, Spells>>();
+function spellsOf(ctx: ScheduleContext): Spells {
+  let byNow = spellCache.get(ctx.calendar);
+  if (!byNow) spellCache.set(ctx.calendar, (byNow = new Map()));
+  let sp = byNow.get(ctx.nowMs);
+  if (!sp) {
+    const from = ctx.nowMs;
+    const to = from + SPELL_REACH_MS;
+    const ivs = ctx.calendar.openIntervals(from, to);
+    sp = { from, to, starts: ivs.map((iv) => iv.start), ends: ivs.map((iv) => iv.end) };
+    byNow.set(ctx.nowMs, sp);
+  }
+  return sp;
+}
+
+/** The calendar's nextOpening(t) (t itself when open), from the cached spells when in reach. */
+function nextOpening(ctx: ScheduleContext, t: number): number | null {
+  const sp = spellsOf(ctx);
+  // Spells are clipped at both ends of the reach, so only trust them well inside it.
+  if (t < sp.from || t >= sp.to - 16 * 86_400_000) return ctx.calendar.nextOpening(t);
+  let lo = 0;
+  let hi = sp.ends.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (sp.ends[mid]! > t) hi = mid;
+    else lo = mid + 1;
+  }
+  if (lo >= sp.ends.length) return ctx.calendar.nextOpening(t);
+  return sp.starts[lo]! <= t ? t : sp.starts[lo]!;
 }
 
 type Lane = { printer: Printer; plates: PackedPlate[]; timed: Timed[]; lateness: number; finish: number; ok: boolean };
@@ -102,7 +138,8 @@ function timeLane(ctx: ScheduleContext, lane: Lane): void {
 export function plateLateness(plate: PackedPlate, end: number): number {
   let sum = 0;
   for (const it of plate.items) {
-    if (it.inst.part.due !== null) sum += Math.max(0, (end - Date.parse(it.inst.part.due)) / MIN);
+    const due = dueOf(it.inst.part);
+    if (due !== null) sum += Math.max(0, (end - due) / MIN);
   }
   return sum;
 }
@@ -139,8 +176,12 @@ export function schedulePlates(plates: readonly PackedPlate[], ctx: ScheduleCont
   for (const plate of ordered) {
     const options = lanes.filter((l) => plateFits(plate, l.printer, ctx.marginMm));
     fits.set(plate, options);
+    // First choice: the printers with the bed the plate was packed for (the packer balanced the
+    // work between bed sizes); the local search below may still move it to a larger bed.
+    const packedBed = ctx.printers.find((p) => p.id === plate.packedFor)?.bed;
+    const own = packedBed ? options.filter((l) => l.printer.bed[0] === packedBed[0] && l.printer.bed[1] === packedBed[1]) : [];
     let best: { lane: Lane; end: number; change: boolean } | null = null;
-    for (const lane of options) {
+    for (const lane of own.length > 0 ? own : options) {
       const last = lane.timed[lane.timed.length - 1];
       const loaded = last ? { material: last.plate.material, color: last.plate.color } : lane.printer.loaded;
       const change = spoolDiffers(loaded, plate) && lane.printer.changeover_minutes > 0;
