@@ -4,7 +4,7 @@ import { mkdir, writeFile, rm } from "node:fs/promises";
 import path from "node:path";
 import { and, asc, eq, inArray } from "drizzle-orm";
 import { db } from "@/db";
-import { meshBlobs, partFiles, partInstances, parts, partSplits, queueEntries, statusEvents } from "@/db/schema";
+import { partFiles, partInstances, parts, partSplits, queueEntries, statusEvents } from "@/db/schema";
 import { analysisToJson, analyzeBytes, writeStl, type TriangleSoup } from "@/lib/mesh";
 import { applyOrientation, searchOrientations, splitUntilFits, type ManifoldWasm, type Printer, type Rotation } from "@/lib/orient";
 import { weld } from "@/lib/orient/geometry";
@@ -14,6 +14,7 @@ import { AppError } from "./errors";
 import { isSplit, partMesh, rotationOfQuaternion } from "./orientation";
 import { partAccess, requirePartEdit } from "./parts";
 import type { SessionUser } from "./session";
+import { forgetUnusedBlobs, withBlobsHeld } from "./blobs";
 import { blobStore, tempDir } from "./storage";
 
 /** Each piece's own orientation search: the planner's lighter settings (lib/orient/split.ts). */
@@ -109,6 +110,7 @@ export async function acceptSplit(user: SessionUser, partId: number, input: Spli
   });
   await mkdir(tempDir(), { recursive: true });
   const fresh: string[] = [];
+  const rewritten = new Set<string>();
   const temps: string[] = [];
   try {
     for (const f of files) {
@@ -118,14 +120,14 @@ export async function acceptSplit(user: SessionUser, partId: number, input: Spli
       if (await blobStore().putFile(f.sha256, temp)) fresh.push(f.sha256);
     }
     const plane = input.cut.kind === "plane" ? { normal: input.cut.plane.normal, offset: input.cut.plane.offset } : null;
-    const created = await db().transaction(async (tx) => {
+    // Recorded under the pieces' blob row locks (lib/server/blobs.ts), so a clean-up of the same bytes elsewhere cannot remove them meanwhile.
+    const created = await withBlobsHeld(files, rewritten, async (tx) => {
       const [lock] = await tx.select({ fileId: parts.currentFileId }).from(parts).where(eq(parts.id, partId)).for("update");
       if (!lock || lock.fileId !== mesh.fileId) throw new AppError("conflict", "The part changed while it was being cut. Plan it again.");
       const again = await tx.select({ id: partSplits.id }).from(partSplits).where(eq(partSplits.parentPartId, partId)).limit(1);
       if (again.length) throw new AppError("conflict", "This part was split already.");
       const out: { partId: number; fileId: number; name: string; volumeMm3: number }[] = [];
       for (const [k, f] of files.entries()) {
-        await tx.insert(meshBlobs).ignore().values({ sha256: f.sha256, sizeBytes: f.bytes.byteLength });
         const [p] = await tx
           .insert(parts)
           .values({ assemblyId: mesh.assemblyId, name: f.name, quantity: parent.quantity, material: parent.material, colour: parent.colour, layerHeightMm: parent.layerHeightMm, walls: parent.walls, infillPercent: parent.infillPercent, notes: `Cut from ${parent.name.slice(0, 200)}; glue the cut faces together.` })
@@ -155,13 +157,8 @@ export async function acceptSplit(user: SessionUser, partId: number, input: Spli
     });
     return { ...created, parentVolumeMm3: mesh.volumeMm3 };
   } catch (e) {
-    for (const sha of fresh) {
-      const used = await db().select({ id: partFiles.id }).from(partFiles).where(eq(partFiles.sha256, sha)).limit(1);
-      if (!used.length) {
-        await db().delete(meshBlobs).where(eq(meshBlobs.sha256, sha));
-        await blobStore().delete(sha).catch(() => undefined);
-      }
-    }
+    const mine = new Set([...fresh, ...rewritten]);
+    await forgetUnusedBlobs(files.filter((f) => mine.has(f.sha256)).map((f) => ({ sha256: f.sha256, sizeBytes: f.bytes.byteLength }))).catch((err: unknown) => console.error("[platewright] split clean-up failed", err));
     throw e;
   } finally {
     for (const t of temps) await rm(t, { force: true }).catch(() => undefined);

@@ -8,6 +8,7 @@ import { meshBlobs, partFiles, parts } from "@/db/schema";
 import { env } from "@/lib/env";
 import { analysisToJson, analyzeBytes, isMeshReadError, type AnalysisJson } from "@/lib/mesh";
 import type { UploadQuery } from "@/lib/validation/assemblies";
+import { forgetUnusedBlobs, withBlobsHeld } from "./blobs";
 import { AppError } from "./errors";
 import { partAccess, requirePartEdit } from "./parts";
 import type { SessionUser } from "./session";
@@ -74,10 +75,13 @@ export async function receiveUpload(
   const temp = path.join(tempDir(), `${randomUUID()}.upload`);
   const store = blobStore();
   let stored = false;
+  const rewritten = new Set<string>();
   let sha256 = "";
+  let sizeBytes = 0;
   try {
     const spooled = await spool(body, temp, limit);
     sha256 = spooled.sha256;
+    sizeBytes = spooled.size;
     const bytes = new Uint8Array(await readFile(temp));
     let analysed;
     try {
@@ -88,8 +92,9 @@ export async function receiveUpload(
     }
     const json = analysisToJson(q.name, analysed.format, analysed.analysis);
     stored = await store.putFile(sha256, temp);
-    const row = await db().transaction(async (tx) => {
-      await tx.insert(meshBlobs).ignore().values({ sha256, sizeBytes: spooled.size });
+    // Recorded under the blob's row lock, so a concurrent clean-up of the same bytes cannot remove them
+    // between here and the commit (and if one removed them just before, they are written again).
+    const row = await withBlobsHeld([{ sha256, bytes }], rewritten, async (tx) => {
       const [cur] = await tx.select({ id: parts.id }).from(parts).where(eq(parts.id, partId)).for("update");
       if (!cur) throw new AppError("not_found", "The part was deleted while the file was uploading.");
       const [max] = await tx.select({ n: sql<number>`COALESCE(MAX(${partFiles.versionNo}), 0)` }).from(partFiles).where(eq(partFiles.partId, partId));
@@ -115,21 +120,14 @@ export async function receiveUpload(
       await tx.update(parts).set({ currentFileId: res!.id, version: sql`${parts.version} + 1`, updatedAt: new Date() }).where(eq(parts.id, partId));
       return { fileId: res!.id, versionNo };
     });
-    return { ...row, sha256, sizeBytes: spooled.size, alreadyStored: !stored, analysis: json, warnings: analysed.warnings };
+    return { ...row, sha256, sizeBytes: spooled.size, alreadyStored: !stored && rewritten.size === 0, analysis: json, warnings: analysed.warnings };
   } catch (e) {
-    if (stored) await forgetIfUnused(sha256);
+    // Bytes this call stored, and that no recorded file refers to, are taken back out (under the lock).
+    if (stored || rewritten.size) await forgetUnusedBlobs([{ sha256, sizeBytes }]).catch((err: unknown) => console.error("[platewright] upload clean-up failed", err));
     throw e;
   } finally {
     await rm(temp, { force: true });
   }
-}
-
-/** Removes stored bytes that no recorded upload refers to (after a failed transaction). */
-async function forgetIfUnused(sha256: string): Promise<void> {
-  const [used] = await db().select({ n: sql<number>`COUNT(*)` }).from(partFiles).where(eq(partFiles.sha256, sha256));
-  if (Number(used?.n ?? 0) > 0) return;
-  await db().delete(meshBlobs).where(eq(meshBlobs.sha256, sha256));
-  await blobStore().delete(sha256).catch(() => undefined);
 }
 
 /** A stored upload, for those who may read its part. */
