@@ -1,7 +1,15 @@
-// Runs once when a Next server process starts: the mail outbox worker lives in the Node.js runtime.
+// Runs once when a Next server process starts (Node.js runtime): the mail outbox worker, and a sweep
+// of temporary upload files that a process killed mid-upload left behind.
 export async function register() {
   if (process.env.NEXT_RUNTIME === "nodejs") {
     const { startOutboxWorker } = await import("@/lib/server/mail/worker");
     startOutboxWorker();
+    const { sweepTempFiles, TEMP_MAX_AGE_MS } = await import("@/lib/server/storage/sweep");
+    sweepTempFiles().then(
+      (removed) => {
+        if (removed.length) console.warn(`[platewright] removed ${removed.length} temporary upload file(s) older than ${TEMP_MAX_AGE_MS / 60_000} min`);
+      },
+      (e: unknown) => console.error("[platewright] temp sweep:", e instanceof Error ? e.message : e),
+    );
   }
 }

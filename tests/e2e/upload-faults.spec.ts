@@ -1,10 +1,10 @@
 // Faults during uploads: the app is killed (SIGKILL) in the middle of an upload and started again;
-// what it had received is never taken as a stored file. Also the streamed size limit (no
+// what it had received is never taken as a stored file, and old half-written temp files are swept at start. Also the streamed size limit (no
 // Content-Length). Runs its own app server (port 3202) on its own database and storage folder, so the
 // shared e2e server is never killed.
 import { spawn, execFileSync, type ChildProcess } from "node:child_process";
 import { createHash } from "node:crypto";
-import { existsSync, mkdirSync, readdirSync, rmSync } from "node:fs";
+import { existsSync, mkdirSync, readdirSync, rmSync, utimesSync, writeFileSync } from "node:fs";
 import http from "node:http";
 import path from "node:path";
 import { expect, test } from "@playwright/test";
@@ -101,7 +101,15 @@ test("killing the app half-way through an upload leaves nothing taken as good; t
   expect(outcome).toMatch(/^error/);
   await new Promise<void>((r) => (app?.exitCode !== null || app?.signalCode ? r() : app?.once("exit", () => r())));
 
+  // A half-written temp file from an earlier crash, two hours old: the start-up sweep removes it
+  // (lib/server/storage/sweep.ts, older than 30 min); the kill's own leftover is younger and stays.
+  const stale = path.join(STORAGE, ".tmp", "stale-from-earlier-crash.upload");
+  mkdirSync(path.dirname(stale), { recursive: true });
+  writeFileSync(stale, body.subarray(0, 1000));
+  const twoHoursAgo = (Date.now() - 2 * 3_600_000) / 1000;
+  utimesSync(stale, twoHoursAgo, twoHoursAgo);
   await startApp();
+  await expect.poll(() => existsSync(stale), { timeout: 10_000 }).toBe(false);
   // No row, no stored blob: the half-file in the temp folder is never moved into storage.
   expect(await rows<{ id: number }>(conn, "SELECT id FROM part_files WHERE part_id = ?", [partId])).toEqual(filesBefore);
   expect(storedBlobs()).toEqual(blobsBefore);

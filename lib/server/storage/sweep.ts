@@ -1,0 +1,34 @@
+import "server-only";
+import { lstat, readdir, rm } from "node:fs/promises";
+import path from "node:path";
+import { tempDir } from "./index";
+
+/**
+ * Temporary files older than this are left over from a process that died mid-upload (or mid-split):
+ * nothing in a live process keeps one for more than the time a single upload takes.
+ */
+export const TEMP_MAX_AGE_MS = 30 * 60_000;
+
+/**
+ * Deletes files in the storage temp folder last written more than `maxAgeMs` ago and returns their
+ * names. Younger files may belong to an upload still under way (in this or another process) and stay.
+ * Run once when the server starts (instrumentation.ts). Stored files live outside the temp folder and
+ * are never touched.
+ */
+export async function sweepTempFiles(opts: { maxAgeMs?: number; now?: number; dir?: string } = {}): Promise<string[]> {
+  const dir = opts.dir ?? tempDir();
+  const cutoff = (opts.now ?? Date.now()) - (opts.maxAgeMs ?? TEMP_MAX_AGE_MS);
+  const names = await readdir(dir).catch((e: NodeJS.ErrnoException) => {
+    if (e.code === "ENOENT") return [] as string[];
+    throw e;
+  });
+  const removed: string[] = [];
+  for (const name of names) {
+    const p = path.join(dir, name);
+    const st = await lstat(p).catch(() => null);
+    if (!st || st.isDirectory() || st.mtimeMs >= cutoff) continue;
+    await rm(p, { force: true });
+    removed.push(name);
+  }
+  return removed;
+}
