@@ -9,6 +9,7 @@ import { defaultWeldTolerance, Welder } from "./weld";
 import { MeshReadError } from "./errors";
 import { DEFAULT_MAX_TRIANGLES, readMesh, stlScale, type MeshFormat, type ReadOptions } from "./read";
 import { isZip } from "./zip";
+import { FRESH, sharedWorkspace } from "./workspace";
 
 export interface MeshAnalysis extends PassResult {
   up: Vec3;
@@ -100,39 +101,47 @@ export function* passSteps(segs: Segment[], triangles: number, o: ResolvedOption
  * Full analysis as a sequence of steps. Each stretch of triangles goes through the single pass and
  * the weld's streaming phase while it is in cache (the weld needs no bounding box until it
  * resolves), then the weld is resolved on the pass's bounding box, then edge census and footprint.
+ * Working memory comes from the shared workspace (see workspace.ts); the welded mesh is returned
+ * only with `keepMesh`, in fresh arrays.
  */
-export function* analysisSteps(segs: Segment[], triangles: number, opts: AnalysisOptions = {}): Generator<Step, { analysis: MeshAnalysis; mesh: IndexedMesh }> {
+export function* analysisSteps(segs: Segment[], triangles: number, opts: AnalysisOptions & { keepMesh?: boolean } = {}): Generator<Step, { analysis: MeshAnalysis; mesh: IndexedMesh | null }> {
   const o = resolveOptions(opts);
   if (triangles === 0) throw new MeshReadError("NO_TRIANGLES", "the mesh has no triangles");
-  const st = new PassState(o, triangles);
-  const zeroArea = (st.zeroArea = new Uint8Array(triangles));
-  const w = new Welder(triangles);
-  let done = 0;
-  for (const s of segs) {
-    s.load?.();
-    passRange(st, s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
-    w.addRange(s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
-    done += s.count;
-    yield { phase: "analyse", fraction: done / triangles };
+  const lease = sharedWorkspace.lease();
+  try {
+    const st = new PassState(o, triangles);
+    const zeroArea = (st.zeroArea = lease.uint8("pass.zero", triangles, true));
+    const w = new Welder(triangles, lease, opts.keepMesh ? FRESH : lease);
+    let done = 0;
+    for (const s of segs) {
+      s.load?.();
+      passRange(st, s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
+      w.addRange(s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
+      done += s.count;
+      yield { phase: "analyse", fraction: done / triangles };
+    }
+    const pass = finishPass(st, () => locateNonFinite(segs));
+    const tolerance = o.weldTolerance ?? defaultWeldTolerance(pass.bbox.min, pass.bbox.max);
+    const { census, ...mesh } = w.result({ min: pass.bbox.min, max: pass.bbox.max, tolerance }, { zeroArea });
+    yield { phase: "weld", fraction: 1 };
+    const topo = topology(mesh, census);
+    yield { phase: "topology", fraction: 1 };
+    const fp = footprint(mesh.vertices, o.up);
+    yield { phase: "footprint", fraction: 1 };
+    const analysis: MeshAnalysis = {
+      ...pass,
+      up: o.up,
+      overhangDeg: opts.overhangDeg ?? 45,
+      vertices: mesh.vertices.length / 3,
+      topology: topo,
+      volumeReliable: topo.watertight,
+      footprint: fp,
+    };
+    return { analysis, mesh: opts.keepMesh ? mesh : null };
+  } finally {
+    // Also runs when the caller stops early (generator return) or a step throws.
+    lease.release();
   }
-  const pass = finishPass(st, () => locateNonFinite(segs));
-  const tolerance = o.weldTolerance ?? defaultWeldTolerance(pass.bbox.min, pass.bbox.max);
-  const { census, ...mesh } = w.result({ min: pass.bbox.min, max: pass.bbox.max, tolerance }, { zeroArea });
-  yield { phase: "weld", fraction: 1 };
-  const topo = topology(mesh, census);
-  yield { phase: "topology", fraction: 1 };
-  const fp = footprint(mesh.vertices, o.up);
-  yield { phase: "footprint", fraction: 1 };
-  const analysis: MeshAnalysis = {
-    ...pass,
-    up: o.up,
-    overhangDeg: opts.overhangDeg ?? 45,
-    vertices: mesh.vertices.length / 3,
-    topology: topo,
-    volumeReliable: topo.watertight,
-    footprint: fp,
-  };
-  return { analysis, mesh };
 }
 
 export function runSteps<T>(g: Generator<Step, T>): T {
@@ -150,12 +159,14 @@ export function passSoup(soup: TriangleSoup, opts?: AnalysisOptions): PassResult
 
 /** Full analysis of a soup (welds it; the welded mesh is returned with it). */
 export function analyzeSoup(soup: TriangleSoup, opts?: AnalysisOptions): MeshAnalysis {
-  return analyzeSoupWithMesh(soup, opts).analysis;
+  const p = soup.positions;
+  return runSteps(analysisSteps(soupSegments(p), Math.floor(p.length / 9), opts)).analysis;
 }
 
 export function analyzeSoupWithMesh(soup: TriangleSoup, opts?: AnalysisOptions): { analysis: MeshAnalysis; mesh: IndexedMesh } {
   const p = soup.positions;
-  return runSteps(analysisSteps(soupSegments(p), Math.floor(p.length / 9), opts));
+  const r = runSteps(analysisSteps(soupSegments(p), Math.floor(p.length / 9), { ...opts, keepMesh: true }));
+  return { analysis: r.analysis, mesh: r.mesh! };
 }
 
 function binaryStlOrNull(bytes: Uint8Array, opts: ReadOptions = {}): number | null {

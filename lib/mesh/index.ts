@@ -13,6 +13,7 @@ export {
 export type { AnalysisOptions } from "./options";
 export type { PassResult } from "./single-pass";
 export { weld } from "./weld";
+export { sharedWorkspace, Workspace } from "./workspace";
 export { topology, type Topology } from "./topology";
 export { footprint, convexHull2d, polygonArea, type Footprint } from "./footprint";
 export { writeStl } from "./stl-write";

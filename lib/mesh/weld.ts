@@ -1,4 +1,5 @@
 import type { IndexedMesh, TriangleSoup } from "./types";
+import { FRESH, type Lease } from "./workspace";
 
 /**
  * Welding: vertices whose coordinates fall in the same cell of a grid of pitch `tolerance` become
@@ -26,21 +27,26 @@ import type { IndexedMesh, TriangleSoup } from "./types";
  */
 export class Welder {
   /** Direct-mapped cache of recent corners, 4 ints a slot: the x, y, z float bits and tentative id + 1 (0 = empty). */
-  private readonly recent = new Int32Array(RECENT * 4);
+  private readonly recent: Int32Array;
   /** Tentative vertices: their coordinates (3 floats per tentative id), in order of appearance. */
   private coords: Float32Array;
   private tentative = 0;
   readonly indices: Uint32Array;
 
-  constructor(triangles: number) {
+  /**
+   * `scratch` lends the working arrays; `out` the corner ids and vertex coordinates, which the
+   * result returns (so `out` must be FRESH when the welded mesh outlives the caller's lease).
+   */
+  constructor(triangles: number, private readonly scratch: Lease = FRESH, private readonly out: Lease = FRESH) {
     // Closed meshes have about half as many vertices as triangles, plus some re-seen ones; grow past that.
     const cap = Math.max(16, (triangles >>> 1) + (triangles >>> 3) + 16);
-    this.coords = new Float32Array(cap * 3);
-    this.indices = new Uint32Array(triangles * 3);
+    this.recent = scratch.int32("weld.recent", RECENT * 4, true);
+    this.coords = out.float32("weld.coords", cap * 3);
+    this.indices = out.uint32("weld.indices", triangles * 3);
   }
 
   private grow(): void {
-    const c = new Float32Array(this.coords.length * 2);
+    const c = this.out.float32("weld.coords", this.coords.length * 2);
     c.set(this.coords);
     this.coords = c;
   }
@@ -107,7 +113,7 @@ export class Welder {
     let largest = 0;
     for (let b = 0; b < nb; b++) { largest = Math.max(largest, start[b + 1]!); start[b + 1]! += start[b]!; }
     // Sized for the edge census too, which reuses it (see topology.ts).
-    const sorted = new Int32Array(Math.max(4 * n, census ? idx.length : 0));
+    const sorted = this.scratch.int32("weld.sorted", Math.max(4 * n, census ? idx.length : 0));
     {
       const fill = start.slice(0, nb);
       for (let i = 0; i < n; i++) {
@@ -122,7 +128,7 @@ export class Welder {
     const mask = size - 1;
     const slotOf = new Int32Array(size);
     const stamp = new Int32Array(size);
-    const map = new Int32Array(n); // tentative id → first tentative id of its cell, then → final id
+    const map = this.scratch.int32("weld.map", n); // tentative id → first tentative id of its cell, then → final id
     for (let b = 0; b < nb; b++) {
       const gen = b + 1;
       for (let e = start[b]!, end = start[b + 1]!; e < end; e++) {
@@ -154,7 +160,7 @@ export class Welder {
       return { vertices, indices: idx };
     }
     // Rewrite ids and count, per vertex, the half-edges whose lower end it is (branch-free min).
-    const own = new Uint32Array(count + 1);
+    const own = this.scratch.uint32("weld.own", count + 1, true);
     const ix = new Int32Array(idx.buffer, idx.byteOffset, idx.length);
     const zero = census.zeroArea;
     let degenerate = 0;

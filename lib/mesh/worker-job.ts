@@ -33,11 +33,15 @@ export async function runAnalyzeJob(bytes: Uint8Array, options: AnalyzeOptions, 
   const p = read.soup.positions;
   const steps = analysisSteps(chunkSegments(soupSegments(p), CHUNK_TRIANGLES), p.length / 9, { up: options.up, overhangDeg: options.overhangDeg, mask: true });
   let analysis: MeshAnalysis;
-  for (;;) {
-    const r = steps.next();
-    if (r.done) { analysis = r.value.analysis; break; }
-    hooks.progress(r.value.phase, r.value.fraction);
-    await check();
+  try {
+    for (;;) {
+      const r = steps.next();
+      if (r.done) { analysis = r.value.analysis; break; }
+      hooks.progress(r.value.phase, r.value.fraction);
+      await check();
+    }
+  } finally {
+    steps.return(undefined as never); // a cancelled job hands its working memory back
   }
   return {
     json: analysisToJson(options.filename ?? "mesh", read.format, analysis),
