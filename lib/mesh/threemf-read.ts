@@ -81,6 +81,14 @@ export function readThreeMf(zip: Uint8Array, opts: ThreeMfReadOptions = {}): { p
   let inBuild = false;
   const need = (t: XmlTag, name: string): string => attr(t, name) ?? model(`<${t.name}> has no ${name} attribute`);
 
+  // Namespaces are read from the root only, so after it a name always resolves the same way.
+  const resolved = new Map<string, { ns: string; local: string }>();
+  const resolve = (name: string) => {
+    let r = resolved.get(name);
+    if (!r) { r = localName(name, prefixes, defaultNs); if (sawModel) resolved.set(name, r); }
+    return r;
+  };
+
   scanXml(xml, {
     open(t) {
       if (!sawModel) {
@@ -91,7 +99,7 @@ export function readThreeMf(zip: Uint8Array, opts: ThreeMfReadOptions = {}): { p
           else if (an.startsWith("xmlns:")) prefixes.set(an.slice(6), attr(t, an) ?? "");
         }
       }
-      const { ns, local } = localName(t.name, prefixes, defaultNs);
+      const { ns, local } = resolve(t.name);
       if (!sawModel) {
         if (local !== "model" || ns !== CORE_NS) throw new MeshReadError("NOT_3MF", `the model part's root is <${t.name}> in '${ns}', not a 3MF core <model>`);
         sawModel = true;
@@ -122,10 +130,10 @@ export function readThreeMf(zip: Uint8Array, opts: ThreeMfReadOptions = {}): { p
         const k1 = attrIndex(t, "v1"), k2 = attrIndex(t, "v2"), k3 = attrIndex(t, "v3");
         if (k1 < 0 || k2 < 0 || k3 < 0) model(`a triangle of object ${cur.id} lacks v1, v2 or v3`);
         const a = attrNumber(t, k1), b = attrNumber(t, k2), c = attrNumber(t, k3);
-        for (const v of [a, b, c]) {
-          if (!Number.isInteger(v) || v < 0 || v >= cur.nv) {
-            throw new MeshReadError("BAD_INDEX", `3MF object ${cur.id}, triangle ${cur.nt}: vertex index ${Number.isNaN(v) ? "(not a number)" : v} is outside 0…${cur.nv - 1}`);
-          }
+        const nv = cur.nv;
+        if (!(a >= 0 && a < nv && b >= 0 && b < nv && c >= 0 && c < nv && Number.isInteger(a) && Number.isInteger(b) && Number.isInteger(c))) {
+          const v = [a, b, c].find((x) => !(Number.isInteger(x) && x >= 0 && x < nv))!;
+          throw new MeshReadError("BAD_INDEX", `3MF object ${cur.id}, triangle ${cur.nt}: vertex index ${Number.isNaN(v) ? "(not a number)" : v} is outside 0…${nv - 1}`);
         }
         cur.tris = grow(cur.tris, 3 * cur.nt + 3);
         const p = 3 * cur.nt++;
@@ -141,7 +149,7 @@ export function readThreeMf(zip: Uint8Array, opts: ThreeMfReadOptions = {}): { p
       }
     },
     close(name) {
-      const { ns, local } = localName(name, prefixes, defaultNs);
+      const { ns, local } = resolve(name);
       if (ns !== CORE_NS) return;
       if (local === "object") cur = undefined;
       else if (local === "build") inBuild = false;

@@ -55,7 +55,30 @@ function decodeName(b: Uint8Array, s: number, e: number): string {
   return out;
 }
 
+/**
+ * Element names repeat (a mesh is a million `vertex` and `triangle` tags), so names are looked up
+ * by their bytes in a small cache of recent names before a string is made: no garbage per element.
+ */
+class NameCache {
+  private readonly names: string[] = [];
+  name(b: Uint8Array, s: number, e: number): string {
+    const len = e - s;
+    outer: for (let k = 0; k < this.names.length; k++) {
+      const n = this.names[k]!;
+      if (n.length !== len) continue;
+      for (let j = 0; j < len; j++) if (n.charCodeAt(j) !== b[s + j]) continue outer;
+      if (k > 0) { this.names[k] = this.names[k - 1]!; this.names[k - 1] = n; } // move towards the front
+      return n;
+    }
+    const n = decodeName(b, s, e);
+    // Only pure ASCII names are cached (their bytes are their char codes).
+    if (n.length === len) { if (this.names.length >= 8) this.names.pop(); this.names.unshift(n); }
+    return n;
+  }
+}
+
 export function scanXml(b: Uint8Array, h: XmlHandler): void {
+  const names = new NameCache();
   const stack: string[] = [];
   const tag: XmlTag = { name: "", count: 0, ranges: new Int32Array(MAX_ATTRS * 4), bytes: b };
   const n = b.length;
@@ -89,7 +112,7 @@ export function scanXml(b: Uint8Array, h: XmlHandler): void {
     if (c === 47) { // '</'
       let e = i + 1;
       while (e < n && !isNameEnd(b[e]!)) e++;
-      const name = decodeName(b, i + 1, e);
+      const name = names.name(b, i + 1, e);
       while (e < n && isWs(b[e]!)) e++;
       if (b[e] !== 62) bad(`malformed closing tag </${name}`);
       const open = stack.pop();
@@ -102,7 +125,7 @@ export function scanXml(b: Uint8Array, h: XmlHandler): void {
     while (e < n && !isNameEnd(b[e]!)) e++;
     if (e === i) bad("malformed tag: '<' not followed by a name");
     if (stack.length === 0 && sawRoot) bad("more than one root element");
-    tag.name = decodeName(b, i, e);
+    tag.name = names.name(b, i, e);
     tag.count = 0;
     let selfClosing = false;
     for (;;) {
