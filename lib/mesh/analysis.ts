@@ -27,6 +27,10 @@ export interface Segment {
   f: Float32Array; base: number; stride: number; count: number; tri0: number; triStep: number;
   /** Fill `f` before reading (a shared scratch buffer); such segments are never split. */
   load?: () => void;
+  /** Binary STL: even records whose odd partners follow in the next segment (never split). */
+  partnered?: boolean;
+  /** Binary STL: the odd records' segment names the even one it interleaves with. */
+  pairOf?: Segment;
 }
 
 export function soupSegments(p: Float32Array): Segment[] {
@@ -50,12 +54,13 @@ export function stlSegments(bytes: Uint8Array, count: number): Segment[] {
   const nEven = (count + 1) >>> 1, nOdd = count >>> 1;
   const out: Segment[] = [];
   for (let k0 = 0; k0 < nEven; k0 += PAIRS_PER_CHUNK) {
-    out.push({ f: even, base: 3 + PAIR_STRIDE * k0, stride: PAIR_STRIDE, count: Math.min(PAIRS_PER_CHUNK, nEven - k0), tri0: 2 * k0, triStep: 2 });
     const n = Math.min(PAIRS_PER_CHUNK, nOdd - k0);
+    const ev: Segment = { f: even, base: 3 + PAIR_STRIDE * k0, stride: PAIR_STRIDE, count: Math.min(PAIRS_PER_CHUNK, nEven - k0), tri0: 2 * k0, triStep: 2, partnered: n > 0 };
+    out.push(ev);
     if (n <= 0) continue;
     const from = 134 + 100 * k0;
     const to = Math.min(src.length, from + 100 * (n - 1) + 50);
-    out.push({ f: scratch, base: 3, stride: PAIR_STRIDE, count: n, tri0: 2 * k0 + 1, triStep: 2, load: () => scratchBytes.set(src.subarray(from, to)) });
+    out.push({ f: scratch, base: 3, stride: PAIR_STRIDE, count: n, tri0: 2 * k0 + 1, triStep: 2, load: () => scratchBytes.set(src.subarray(from, to)), pairOf: ev });
   }
   return out;
 }
@@ -64,7 +69,7 @@ export function stlSegments(bytes: Uint8Array, count: number): Segment[] {
 export function chunkSegments(segs: Segment[], max: number): Segment[] {
   const out: Segment[] = [];
   for (const s of segs) {
-    if (s.load) { out.push(s); continue; }
+    if (s.load || s.partnered || s.pairOf) { out.push(s); continue; }
     for (let k = 0; k < s.count; k += max) {
       out.push({ ...s, base: s.base + k * s.stride, count: Math.min(max, s.count - k), tri0: s.tri0 + k * s.triStep });
     }
@@ -116,7 +121,10 @@ export function* analysisSteps(segs: Segment[], triangles: number, opts: Analysi
     for (const s of segs) {
       s.load?.();
       passRange(st, s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
-      w.addRange(s.f, s.base, s.stride, s.count, s.tri0, s.triStep);
+      // The weld takes triangles in file order: STL's even records wait for their odd partners.
+      if (s.pairOf) w.addPairs(s.pairOf.f, s.pairOf.base, s.f, s.base, s.stride, s.pairOf.count, s.count, s.pairOf.tri0);
+      else if (s.triStep === 2) { if (!s.partnered) w.addPairs(s.f, s.base, s.f, s.base, s.stride, s.count, 0, s.tri0); }
+      else w.addRange(s.f, s.base, s.stride, s.count, s.tri0);
       done += s.count;
       yield { phase: "analyse", fraction: done / triangles };
     }

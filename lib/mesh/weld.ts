@@ -52,31 +52,48 @@ export class Welder {
   }
 
   /**
-   * Weld `count` triangles read from f at base + k·stride (9 floats each); triangle = tri0 + k·triStep.
-   * Needs no bounding box: cells are only computed when the tentative vertices are resolved.
+   * Weld `count` consecutive triangles of a soup-like array (9 floats each at base + k·stride,
+   * triangle tri0 + k). Needs no bounding box: cells are only computed when the weld resolves.
    */
-  addRange(f: Float32Array, base: number, stride: number, count: number, tri0: number, triStep: number): void {
+  addRange(f: Float32Array, base: number, stride: number, count: number, tri0: number): void {
+    this.addPairs(f, base, f, base + stride, 2 * stride, (count + 1) >>> 1, count >>> 1, tri0);
+  }
+
+  /**
+   * Weld triangles given as pairs in file order: triangle tri0 + 2k at fa[baseA + k·stride] and
+   * triangle tri0 + 2k + 1 at fb[baseB + k·stride] (countA of the first kind, countB of the second,
+   * countB = countA or countA − 1). Binary STL records alternate between two aligned views, and
+   * taking them in file order keeps each vertex's uses close together, which is what the cache of
+   * recent corners relies on.
+   */
+  addPairs(fa: Float32Array, baseA: number, fb: Float32Array, baseB: number, stride: number, countA: number, countB: number, tri0: number): void {
     const idx = this.indices, rc = this.recent;
-    const bits = new Int32Array(f.buffer, f.byteOffset, f.length);
+    const ba = new Int32Array(fa.buffer, fa.byteOffset, fa.length);
+    const bb = fb === fa ? ba : new Int32Array(fb.buffer, fb.byteOffset, fb.length);
     let coords = this.coords, t = this.tentative, cap = coords.length / 3;
-    for (let k = 0, p = base, o = 3 * tri0; k < count; k++, p += stride, o += 3 * triStep) {
-      for (let c = 0; c < 3; c++) {
-        const j = p + 3 * c;
-        const bx = bits[j]!, by = bits[j + 1]!, bz = bits[j + 2]!;
-        const r = recentSlot(bx, by, bz);
-        if (rc[r] === bx && rc[r + 1] === by && rc[r + 2] === bz && rc[r + 3] !== 0) {
-          idx[o + c] = rc[r + 3]! - 1;
-          continue;
+    for (let k = 0, o = 3 * tri0; k < countA; k++) {
+      for (let half = 0; half < 2; half++, o += 3) {
+        if (half === 1 && k >= countB) break;
+        const f = half === 0 ? fa : fb, bits = half === 0 ? ba : bb;
+        const p = (half === 0 ? baseA : baseB) + k * stride;
+        for (let c = 0; c < 3; c++) {
+          const j = p + 3 * c;
+          const bx = bits[j]!, by = bits[j + 1]!, bz = bits[j + 2]!;
+          const r = recentSlot(bx, by, bz);
+          if (rc[r] === bx && rc[r + 1] === by && rc[r + 2] === bz && rc[r + 3] !== 0) {
+            idx[o + c] = rc[r + 3]! - 1;
+            continue;
+          }
+          if (t === cap) {
+            this.tentative = t;
+            this.grow();
+            coords = this.coords; cap = coords.length / 3;
+          }
+          const id = t++;
+          coords[3 * id] = f[j]!; coords[3 * id + 1] = f[j + 1]!; coords[3 * id + 2] = f[j + 2]!;
+          rc[r] = bx; rc[r + 1] = by; rc[r + 2] = bz; rc[r + 3] = id + 1;
+          idx[o + c] = id;
         }
-        if (t === cap) {
-          this.tentative = t;
-          this.grow();
-          coords = this.coords; cap = coords.length / 3;
-        }
-        const id = t++;
-        coords[3 * id] = f[j]!; coords[3 * id + 1] = f[j + 1]!; coords[3 * id + 2] = f[j + 2]!;
-        rc[r] = bx; rc[r + 1] = by; rc[r + 2] = bz; rc[r + 3] = id + 1;
-        idx[o + c] = id;
       }
     }
     this.tentative = t;
@@ -249,6 +266,6 @@ export function weld(soup: TriangleSoup, tolerance?: number): IndexedMesh {
   if (n === 0) return { vertices: new Float32Array(0), indices: new Uint32Array(0) };
   const { min, max } = soupBounds(soup.positions);
   const w = new Welder(n);
-  w.addRange(soup.positions, 0, 9, n, 0, 1);
+  w.addRange(soup.positions, 0, 9, n, 0);
   return w.result({ min, max, tolerance: tolerance ?? defaultWeldTolerance(min, max) });
 }
