@@ -104,9 +104,31 @@ function outsideOctagon(pts: PointArray, n: number, stride: number, corners: num
   const a6x = e[24]!, a6y = e[25]!, e6x = e[26]!, e6y = e[27]!;
   const a7x = e[28]!, a7y = e[29]!, e7x = e[30]!, e7y = e[31]!;
   const buckets = Array.from({ length: m }, () => new Points(256));
+  // A box strictly inside the octagon (its four corners are strictly inside, so by convexity all of
+  // it is) drops most interior points with four comparisons; the box spans the octagon's corners
+  // between the diagonal ones. Degenerate octagons just get an empty box.
+  let bx0 = Infinity, bx1 = -Infinity, by0 = Infinity, by1 = -Infinity;
+  {
+    const xs: number[] = [], ys: number[] = [];
+    for (let k = 0; k < m; k++) { xs.push(c[2 * k]!); ys.push(c[2 * k + 1]!); }
+    const sx = [...xs].sort((a, b) => a - b), sy = [...ys].sort((a, b) => a - b);
+    // The middle of the sorted corner coordinates, pulled in a little so that corners lying on the
+    // octagon's own corners (a regular octagon's 45° ones) come strictly inside.
+    const mx0 = sx[Math.floor(m / 4)]!, mx1 = sx[Math.ceil((3 * m) / 4) - 1]!, my0 = sy[Math.floor(m / 4)]!, my1 = sy[Math.ceil((3 * m) / 4) - 1]!;
+    const sxh = ((mx1 - mx0) / 2) * (1 - 1e-6), syh = ((my1 - my0) / 2) * (1 - 1e-6);
+    const qx0 = (mx0 + mx1) / 2 - sxh, qx1 = (mx0 + mx1) / 2 + sxh, qy0 = (my0 + my1) / 2 - syh, qy1 = (my0 + my1) / 2 + syh;
+    const inside = (x: number, y: number) => {
+      for (let k = 0; k < 8; k++) if (!(e[4 * k + 2]! * (y - e[4 * k + 1]!) - e[4 * k + 3]! * (x - e[4 * k]!) > 0)) return false;
+      return true;
+    };
+    if (qx0 < qx1 && qy0 < qy1 && inside(qx0, qy0) && inside(qx1, qy0) && inside(qx1, qy1) && inside(qx0, qy1)) {
+      bx0 = qx0; bx1 = qx1; by0 = qy0; by1 = qy1;
+    }
+  }
   for (let i = 0, p = 0; i < n; i++, p += stride) {
     const x = pts[p]!, y = pts[p + 1]!;
-    // Strictly left of all eight edges (the common case, unrolled): inside, dropped.
+    if (x > bx0 && x < bx1 && y > by0 && y < by1) continue;
+    // Strictly left of all eight edges (unrolled): inside, dropped.
     if (e0x * (y - a0y) - e0y * (x - a0x) > 0 && e1x * (y - a1y) - e1y * (x - a1x) > 0 &&
       e2x * (y - a2y) - e2y * (x - a2x) > 0 && e3x * (y - a3y) - e3y * (x - a3x) > 0 &&
       e4x * (y - a4y) - e4y * (x - a4x) > 0 && e5x * (y - a5y) - e5y * (x - a5x) > 0 &&
