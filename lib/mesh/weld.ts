@@ -20,7 +20,7 @@ import { FRESH, type Lease } from "./workspace";
  *     evicted, or that comes back with other bits in the same cell, simply gets another tentative id.
  *     The same loop flags triangles of zero area (the edge census counts them as degenerate).
  *  2. Resolution: tentative vertices are bucketed by the top bits of their hash (a counting sort
- *     that keeps their order), and each bucket (~128 entries) is de-duplicated with a tiny hash
+ *     that keeps their order), and each bucket (~512 entries) is de-duplicated with a tiny hash
  *     table that stays in L1. Every duplicate points at the first tentative id of its cell, the
  *     survivors are numbered in order (= first appearance), and the corner ids are rewritten in one
  *     sequential pass.
@@ -227,7 +227,7 @@ function recentSlot(x: number, y: number, z: number): number {
 }
 
 /** Tentative vertices per resolution bucket: small enough that a bucket's table sits in L1. */
-const BUCKET_TARGET = 128;
+const BUCKET_TARGET = 512;
 
 /**
  * Hash of three int32 (cell ints or raw float bits): each word is folded in after an xorshift and
