@@ -114,8 +114,8 @@ export function* analysisSteps(segs: Segment[], triangles: number, opts: Analysi
   if (triangles === 0) throw new MeshReadError("NO_TRIANGLES", "the mesh has no triangles");
   const lease = sharedWorkspace.lease();
   try {
-    const st = new PassState(o, triangles);
-    const zeroArea = (st.zeroArea = lease.uint8("pass.zero", triangles, true));
+    const zeroArea = lease.uint8("pass.zero", triangles, true);
+    const st = new PassState(o, triangles, zeroArea);
     const w = new Welder(triangles, lease, opts.keepMesh ? FRESH : lease);
     let done = 0;
     for (const s of segs) {

@@ -95,14 +95,6 @@ function outsideOctagon(pts: PointArray, n: number, stride: number, corners: num
     e[4 * k] = c[2 * k1]!; e[4 * k + 1] = c[2 * k1 + 1]!;
     e[4 * k + 2] = c[2 * k2]! - c[2 * k1]!; e[4 * k + 3] = c[2 * k2 + 1]! - c[2 * k1 + 1]!;
   }
-  const a0x = e[0]!, a0y = e[1]!, e0x = e[2]!, e0y = e[3]!;
-  const a1x = e[4]!, a1y = e[5]!, e1x = e[6]!, e1y = e[7]!;
-  const a2x = e[8]!, a2y = e[9]!, e2x = e[10]!, e2y = e[11]!;
-  const a3x = e[12]!, a3y = e[13]!, e3x = e[14]!, e3y = e[15]!;
-  const a4x = e[16]!, a4y = e[17]!, e4x = e[18]!, e4y = e[19]!;
-  const a5x = e[20]!, a5y = e[21]!, e5x = e[22]!, e5y = e[23]!;
-  const a6x = e[24]!, a6y = e[25]!, e6x = e[26]!, e6y = e[27]!;
-  const a7x = e[28]!, a7y = e[29]!, e7x = e[30]!, e7y = e[31]!;
   const buckets = Array.from({ length: m }, () => new Points(256));
   // A box strictly inside the octagon (its four corners are strictly inside, so by convexity all of
   // it is) drops most interior points with four comparisons; the box spans the octagon's corners
@@ -125,6 +117,20 @@ function outsideOctagon(pts: PointArray, n: number, stride: number, corners: num
       bx0 = qx0; bx1 = qx1; by0 = qy0; by1 = qy1;
     }
   }
+  classify(pts, n, stride, e, bx0, bx1, by0, by1, buckets);
+  return { c, buckets };
+}
+
+/** Put each point not strictly inside the octagon (edges in `e`) in the bucket of the first edge it is not left of. */
+function classify(pts: PointArray, n: number, stride: number, e: Float64Array, bx0: number, bx1: number, by0: number, by1: number, buckets: Points[]): void {
+  const a0x = e[0]!, a0y = e[1]!, e0x = e[2]!, e0y = e[3]!;
+  const a1x = e[4]!, a1y = e[5]!, e1x = e[6]!, e1y = e[7]!;
+  const a2x = e[8]!, a2y = e[9]!, e2x = e[10]!, e2y = e[11]!;
+  const a3x = e[12]!, a3y = e[13]!, e3x = e[14]!, e3y = e[15]!;
+  const a4x = e[16]!, a4y = e[17]!, e4x = e[18]!, e4y = e[19]!;
+  const a5x = e[20]!, a5y = e[21]!, e5x = e[22]!, e5y = e[23]!;
+  const a6x = e[24]!, a6y = e[25]!, e6x = e[26]!, e6y = e[27]!;
+  const a7x = e[28]!, a7y = e[29]!, e7x = e[30]!, e7y = e[31]!;
   for (let i = 0, p = 0; i < n; i++, p += stride) {
     const x = pts[p]!, y = pts[p + 1]!;
     if (x > bx0 && x < bx1 && y > by0 && y < by1) continue;
@@ -137,7 +143,6 @@ function outsideOctagon(pts: PointArray, n: number, stride: number, corners: num
     while (e[k + 2]! * (y - e[k + 1]!) - e[k + 3]! * (x - e[k]!) > 0) k += 4;
     buckets[k >>> 2]!.push(x, y);
   }
-  return { c, buckets };
 }
 
 /** Pockets this small go to the chain as they are. */

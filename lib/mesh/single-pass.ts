@@ -29,7 +29,7 @@ export class PassState {
   hMin = Infinity; hMax = -Infinity;
   area2 = 0; vol6 = 0; over2 = 0;
   /** Volume origin: the first vertex seen, to keep the triple products small. */
-  ox = NaN; oy = 0; oz = 0;
+  ox = NaN; oy = NaN; oz = NaN;
   /** Down-facing facets that were near the running minimum: [tri, maxH, ±|n| (negative = not overhang)]. */
   cand: Float64Array = new Float64Array(3 * 256);
   nCand = 0;
@@ -41,10 +41,12 @@ export class PassState {
    */
   zeroArea: Uint8Array | undefined;
   readonly triangles: number;
-  constructor(o: ResolvedOptions, triangles: number) {
+  /** Every field gets its final kind here, so optimised code never sees a field change its representation. */
+  constructor(o: ResolvedOptions, triangles: number, zeroArea?: Uint8Array) {
     this.o = o;
     this.triangles = triangles;
     this.mask = o.mask ? new Uint8Array(triangles) : undefined;
+    this.zeroArea = zeroArea;
   }
   growCand(): Float64Array {
     const next = new Float64Array(this.cand.length * 2);

@@ -109,90 +109,117 @@ export class Welder {
   result(grid: WeldGrid, census?: { zeroArea: Uint8Array }): IndexedMesh & { census?: CensusStart } {
     const n = this.tentative, coords = this.coords, idx = this.indices;
     if (n === 0) return { vertices: new Float32Array(0), indices: idx, ...(census ? { census: { start: new Uint32Array(1), degenerate: 0, scratch: new Int32Array(idx.length), scratch2: new Int32Array(1) } } : {}) };
-    // Cells: offsets from the minimum are ≥ 0, so truncating v + 0.5 rounds half up (as Math.round).
-    // They are recomputed from the coordinates in each pass below rather than stored (fresh memory
-    // costs more than the arithmetic: every new page is a fault).
     const { min, max } = grid;
     const span = Math.max(max[0]! - min[0]!, max[1]! - min[1]!, max[2]! - min[2]!, 0);
-    const inv = 1 / Math.max(grid.tolerance, span / 2 ** 30);
-    const ox = min[0]!, oy = min[1]!, oz = min[2]!;
+    const q: Quantiser = { inv: 1 / Math.max(grid.tolerance, span / 2 ** 30), ox: min[0]!, oy: min[1]!, oz: min[2]! };
     // Bucket by the cell hash's top bits (counting sort, stable), carrying each cell and its tentative id.
     let bits = 0;
     while (bits < 24 && n >>> bits > BUCKET_TARGET) bits++;
-    const shift = 32 - bits, nb = 1 << bits;
+    const nb = 1 << bits;
     const start = new Int32Array(nb + 1);
-    if (bits > 0) {
-      for (let i = 0; i < n; i++) {
-        const qx = ((coords[3 * i]! - ox) * inv + 0.5) | 0, qy = ((coords[3 * i + 1]! - oy) * inv + 0.5) | 0, qz = ((coords[3 * i + 2]! - oz) * inv + 0.5) | 0;
-        start[(hash3(qx, qy, qz) >>> shift) + 1]!++;
-      }
-    } else start[1] = n;
+    countBuckets(coords, n, q, HASH_BITS - bits, start);
     let largest = 0;
     for (let b = 0; b < nb; b++) { largest = Math.max(largest, start[b + 1]!); start[b + 1]! += start[b]!; }
     // Sized for the edge census too, which reuses it (see topology.ts).
     const sorted = this.scratch.int32("weld.sorted", Math.max(4 * n, census ? idx.length : 0));
-    {
-      const fill = start.slice(0, nb);
-      for (let i = 0; i < n; i++) {
-        const qx = ((coords[3 * i]! - ox) * inv + 0.5) | 0, qy = ((coords[3 * i + 1]! - oy) * inv + 0.5) | 0, qz = ((coords[3 * i + 2]! - oz) * inv + 0.5) | 0;
-        const s = 4 * (bits > 0 ? fill[hash3(qx, qy, qz) >>> shift]!++ : fill[0]!++);
-        sorted[s] = qx; sorted[s + 1] = qy; sorted[s + 2] = qz; sorted[s + 3] = i;
-      }
-    }
-    // Per bucket, first tentative id of each cell (entries are in id order, so the first seen is the smallest).
+    scatterCells(coords, n, q, HASH_BITS - bits, start.slice(0, nb), sorted);
     let size = 16;
     while (size < 2 * largest) size *= 2;
-    const mask = size - 1;
-    const slotOf = new Int32Array(size);
-    const stamp = new Int32Array(size);
     const map = this.scratch.int32("weld.map", n); // tentative id → first tentative id of its cell, then → final id
-    for (let b = 0; b < nb; b++) {
-      const gen = b + 1;
-      for (let e = start[b]!, end = start[b + 1]!; e < end; e++) {
-        const qx = sorted[4 * e]!, qy = sorted[4 * e + 1]!, qz = sorted[4 * e + 2]!, id = sorted[4 * e + 3]!;
-        let s = hash3(qx, qy, qz) & mask;
-        let first = id;
-        while (stamp[s] === gen) {
-          const j = 4 * slotOf[s]!;
-          if (sorted[j] === qx && sorted[j + 1] === qy && sorted[j + 2] === qz) { first = sorted[j + 3]!; break; }
-          s = (s + 1) & mask;
-        }
-        if (first === id) { stamp[s] = gen; slotOf[s] = e; }
-        map[id] = first;
-      }
-    }
-    // Number the survivors in order (a duplicate's first id is smaller, so already renumbered) and
-    // compact their coordinates in place (a survivor's new slot is never after its old one).
-    let count = 0;
-    for (let i = 0; i < n; i++) {
-      if (map[i] === i) {
-        coords[3 * count] = coords[3 * i]!; coords[3 * count + 1] = coords[3 * i + 1]!; coords[3 * count + 2] = coords[3 * i + 2]!;
-        map[i] = count++;
-      } else map[i] = map[map[i]!]!;
-    }
+    firstOfCells(sorted, start, nb, map, size);
+    const count = numberSurvivors(map, coords, n);
     // A view when little is wasted (no copy, no fresh pages), else a tight copy.
     const vertices = 4 * 3 * count >= 3 * coords.length ? coords.subarray(0, 3 * count) : coords.slice(0, 3 * count);
     if (!census) {
       if (count < n) for (let i = 0; i < idx.length; i++) idx[i] = map[idx[i]!]!;
       return { vertices, indices: idx };
     }
-    // Rewrite ids and count, per vertex, the half-edges whose lower end it is (branch-free min).
     const own = this.scratch.uint32("weld.own", count + 1, true);
-    const ix = new Int32Array(idx.buffer, idx.byteOffset, idx.length);
-    const zero = census.zeroArea;
-    let degenerate = 0;
-    for (let t = 0, o = 0; o < ix.length; t++, o += 3) {
-      const a = map[ix[o]!]!, b = map[ix[o + 1]!]!, c = map[ix[o + 2]!]!;
-      ix[o] = a; ix[o + 1] = b; ix[o + 2] = c;
-      if (a === b || b === c || a === c) { degenerate++; continue; }
-      degenerate += zero[t]!;
-      own[a + ((b - a) & ((b - a) >> 31)) + 1]!++;
-      own[b + ((c - b) & ((c - b) >> 31)) + 1]!++;
-      own[c + ((a - c) & ((a - c) >> 31)) + 1]!++;
-    }
+    const degenerate = rewriteAndCount(new Int32Array(idx.buffer, idx.byteOffset, idx.length), map, census.zeroArea, own);
     for (let i = 0; i < count; i++) own[i + 1]! += own[i]!;
     return { vertices, indices: idx, census: { start: own, degenerate, scratch: sorted, scratch2: map } };
   }
+}
+
+// The resolution's loops, one function each: a function holding several long loops is optimised
+// loop by loop as each gets hot, and runs the others unoptimised (boxing every number) meanwhile.
+
+/**
+ * Cell of a coordinate: offsets from the minimum are ≥ 0, so truncating v + 0.5 rounds half up
+ * (as Math.round). Cells are recomputed in each pass rather than stored: fresh memory costs more
+ * than the arithmetic.
+ */
+interface Quantiser { inv: number; ox: number; oy: number; oz: number }
+
+function countBuckets(coords: Float32Array, n: number, q: Quantiser, shift: number, start: Int32Array): void {
+  if (shift >= HASH_BITS) { start[1] = n; return; }
+  const { inv, ox, oy, oz } = q;
+  for (let i = 0; i < n; i++) {
+    const qx = ((coords[3 * i]! - ox) * inv + 0.5) | 0, qy = ((coords[3 * i + 1]! - oy) * inv + 0.5) | 0, qz = ((coords[3 * i + 2]! - oz) * inv + 0.5) | 0;
+    start[(hash3(qx, qy, qz) >>> shift) + 1]!++;
+  }
+}
+
+function scatterCells(coords: Float32Array, n: number, q: Quantiser, shift: number, fill: Int32Array, sorted: Int32Array): void {
+  const { inv, ox, oy, oz } = q;
+  const one = shift >= HASH_BITS;
+  for (let i = 0; i < n; i++) {
+    const qx = ((coords[3 * i]! - ox) * inv + 0.5) | 0, qy = ((coords[3 * i + 1]! - oy) * inv + 0.5) | 0, qz = ((coords[3 * i + 2]! - oz) * inv + 0.5) | 0;
+    const s = 4 * (one ? fill[0]!++ : fill[hash3(qx, qy, qz) >>> shift]!++);
+    sorted[s] = qx; sorted[s + 1] = qy; sorted[s + 2] = qz; sorted[s + 3] = i;
+  }
+}
+
+/** Per bucket, the first tentative id of each cell (entries are in id order, so the first seen is the smallest). */
+function firstOfCells(sorted: Int32Array, start: Int32Array, nb: number, map: Int32Array, size: number): void {
+  const mask = size - 1;
+  const slotOf = new Int32Array(size);
+  const stamp = new Int32Array(size);
+  for (let b = 0; b < nb; b++) {
+    const gen = b + 1;
+    for (let e = start[b]!, end = start[b + 1]!; e < end; e++) {
+      const qx = sorted[4 * e]!, qy = sorted[4 * e + 1]!, qz = sorted[4 * e + 2]!, id = sorted[4 * e + 3]!;
+      let s = hash3(qx, qy, qz) & mask;
+      let first = id;
+      while (stamp[s] === gen) {
+        const j = 4 * slotOf[s]!;
+        if (sorted[j] === qx && sorted[j + 1] === qy && sorted[j + 2] === qz) { first = sorted[j + 3]!; break; }
+        s = (s + 1) & mask;
+      }
+      if (first === id) { stamp[s] = gen; slotOf[s] = e; }
+      map[id] = first;
+    }
+  }
+}
+
+/**
+ * Number the survivors in order (a duplicate's first id is smaller, so already renumbered) and
+ * compact their coordinates in place (a survivor's new slot is never after its old one).
+ */
+function numberSurvivors(map: Int32Array, coords: Float32Array, n: number): number {
+  let count = 0;
+  for (let i = 0; i < n; i++) {
+    if (map[i] === i) {
+      coords[3 * count] = coords[3 * i]!; coords[3 * count + 1] = coords[3 * i + 1]!; coords[3 * count + 2] = coords[3 * i + 2]!;
+      map[i] = count++;
+    } else map[i] = map[map[i]!]!;
+  }
+  return count;
+}
+
+/** Rewrite corner ids and count, per vertex, the half-edges whose lower end it is (branch-free min); returns the degenerate count. */
+function rewriteAndCount(ix: Int32Array, map: Int32Array, zero: Uint8Array, own: Uint32Array): number {
+  let degenerate = 0;
+  for (let t = 0, o = 0; o < ix.length; t++, o += 3) {
+    const a = map[ix[o]!]!, b = map[ix[o + 1]!]!, c = map[ix[o + 2]!]!;
+    ix[o] = a; ix[o + 1] = b; ix[o + 2] = c;
+    if (a === b || b === c || a === c) { degenerate++; continue; }
+    degenerate += zero[t]!;
+    own[a + ((b - a) & ((b - a) >> 31)) + 1]!++;
+    own[b + ((c - b) & ((c - b) >> 31)) + 1]!++;
+    own[c + ((a - c) & ((a - c) >> 31)) + 1]!++;
+  }
+  return degenerate;
 }
 
 /** The weld grid: cells of pitch `tolerance` from the bounding-box minimum (widened to keep 2^30 cells an axis). */
@@ -239,8 +266,13 @@ function hash3(x: number, y: number, z: number): number {
   let h = Math.imul(x, 0x9e3779b1);
   h = Math.imul(h ^ (h >>> 16) ^ y, 0x85ebca77);
   h = Math.imul(h ^ (h >>> 16) ^ z, 0xc2b2ae3d);
-  return h ^ (h >>> 16);
+  // 30 bits, so the value is always a small integer to the engine: a full 32-bit result returned
+  // from a call that is not inlined becomes a heap-allocated number.
+  return (h ^ (h >>> 16)) >>> (32 - HASH_BITS);
 }
+
+/** Bits of hash3's result. */
+const HASH_BITS = 30;
 
 /** Default pitch: one millionth of the bounding-box diagonal (keeps cells within int32). */
 export function defaultWeldTolerance(min: readonly number[], max: readonly number[]): number {
