@@ -157,22 +157,26 @@ function narrowPocket(xy: Float64Array, lo0: number, hi0: number, a0x: number, a
   while (stack.length > 0) {
     const by = stack.pop()!, bx = stack.pop()!, ay = stack.pop()!, ax = stack.pop()!, hi = stack.pop()!, lo = stack.pop()!;
     if (hi - lo <= SMALL_POCKET) { for (let i = lo; i < hi; i++) keep.push(xy[2 * i]!, xy[2 * i + 1]!); continue; }
+    // Cross products written out (the same as cross()): a call passing six numbers that is not
+    // inlined allocates them, and these loops run over every point left outside the octagon.
+    const abx = bx - ax, aby = by - ay;
     let far = -1, best = 0;
     for (let i = lo; i < hi; i++) {
-      const d = cross(ax, ay, bx, by, xy[2 * i]!, xy[2 * i + 1]!);
+      const d = abx * (xy[2 * i + 1]! - ay) - aby * (xy[2 * i]! - ax);
       if (d < best) { best = d; far = i; }
     }
     if (far < 0) { for (let i = lo; i < hi; i++) keep.push(xy[2 * i]!, xy[2 * i + 1]!); continue; }
     swap(xy, lo, far);
     const px = xy[2 * lo]!, py = xy[2 * lo + 1]!;
     keep.push(px, py);
+    const apx = px - ax, apy = py - ay, pbx = bx - px, pby = by - py;
     let w = lo + 1;
-    for (let i = lo + 1; i < hi; i++) if (cross(ax, ay, px, py, xy[2 * i]!, xy[2 * i + 1]!) <= 0) swap(xy, w++, i);
+    for (let i = lo + 1; i < hi; i++) if (apx * (xy[2 * i + 1]! - ay) - apy * (xy[2 * i]! - ax) <= 0) swap(xy, w++, i);
     const mid = w;
     for (let i = mid; i < hi; i++) {
       const x = xy[2 * i]!, y = xy[2 * i + 1]!;
-      if (cross(px, py, bx, by, x, y) <= 0) swap(xy, w++, i);
-      else if (cross(ax, ay, bx, by, x, y) === 0) keep.push(x, y); // on a→b itself: not strictly inside
+      if (pbx * (y - py) - pby * (x - px) <= 0) swap(xy, w++, i);
+      else if (abx * (y - ay) - aby * (x - ax) === 0) keep.push(x, y); // on a→b itself: not strictly inside
       // else strictly inside triangle a, p, b: dropped
     }
     if (8 * (hi - w) < hi - lo) {

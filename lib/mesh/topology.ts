@@ -32,8 +32,25 @@ export function topology(mesh: IndexedMesh, census?: CensusStart): Topology {
   const ix = new Int32Array(idx.buffer, idx.byteOffset, 3 * nt);
   const { start, degenerate, scratch, scratch2 } = census ?? countHalfEdges(mesh);
   const fill = scratch2.length >= nv ? scratch2 : new Int32Array(nv);
-  for (let i = 0; i < nv; i++) fill[i] = start[i]!;
   const entry = scratch.length >= start[nv]! ? scratch : new Int32Array(start[nv]!);
+  fillHalfEdges(ix, start, nv, fill, entry);
+  const counts = new Int32Array(3); // boundary, non-manifold, inconsistent
+  scanEdges(start, nv, entry, counts);
+  const boundary = counts[0]!, nonManifold = counts[1]!, inconsistent = counts[2]!;
+  return {
+    boundaryEdges: boundary,
+    nonManifoldEdges: nonManifold,
+    inconsistentEdges: inconsistent,
+    degenerateTriangles: degenerate,
+    watertight: nt > 0 && boundary === 0 && nonManifold === 0 && inconsistent === 0,
+  };
+}
+
+// One function per long loop, so that each is optimised on its own (see weld.ts).
+
+/** Place each live triangle's half-edges in their lower vertex's slots: entry = 2·hi + (from > to). */
+function fillHalfEdges(ix: Int32Array, start: Uint32Array, nv: number, fill: Int32Array, entry: Int32Array): void {
+  for (let i = 0; i < nv; i++) fill[i] = start[i]!;
   for (let o = 0; o < ix.length; o += 3) {
     const a = ix[o]!, b = ix[o + 1]!, c = ix[o + 2]!;
     if (a === b || b === c || a === c) continue;
@@ -45,10 +62,13 @@ export function topology(mesh: IndexedMesh, census?: CensusStart): Topology {
     d = (a - c) >> 31; m = (a - c) & d;
     entry[fill[c + m]!++] = 2 * (a - m) - d;
   }
+}
+
+/** Per vertex: insertion sort of its short list, then each run of equal hi is one edge; counts go to out[0..2]. */
+function scanEdges(start: Uint32Array, nv: number, entry: Int32Array, out: Int32Array): void {
   let boundary = 0, nonManifold = 0, inconsistent = 0;
   for (let lo = 0; lo < nv; lo++) {
     const s = start[lo]!, e = start[lo + 1]!;
-    // Insertion sort of the short list, then runs of equal hi are one edge.
     for (let i = s + 1; i < e; i++) {
       const x = entry[i]!;
       let j = i - 1;
@@ -65,13 +85,7 @@ export function topology(mesh: IndexedMesh, census?: CensusStart): Topology {
       else if (b !== 1) inconsistent++;
     }
   }
-  return {
-    boundaryEdges: boundary,
-    nonManifoldEdges: nonManifold,
-    inconsistentEdges: inconsistent,
-    degenerateTriangles: degenerate,
-    watertight: nt > 0 && boundary === 0 && nonManifold === 0 && inconsistent === 0,
-  };
+  out[0] = boundary; out[1] = nonManifold; out[2] = inconsistent;
 }
 
 /** Offsets of each vertex's owned half-edges and the degenerate count, from an indexed mesh alone. */

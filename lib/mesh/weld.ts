@@ -111,18 +111,18 @@ export class Welder {
     if (n === 0) return { vertices: new Float32Array(0), indices: idx, ...(census ? { census: { start: new Uint32Array(1), degenerate: 0, scratch: new Int32Array(idx.length), scratch2: new Int32Array(1) } } : {}) };
     const { min, max } = grid;
     const span = Math.max(max[0]! - min[0]!, max[1]! - min[1]!, max[2]! - min[2]!, 0);
-    const q: Quantiser = { inv: 1 / Math.max(grid.tolerance, span / 2 ** 30), ox: min[0]!, oy: min[1]!, oz: min[2]! };
+    const inv = 1 / Math.max(grid.tolerance, span / 2 ** 30), ox = +min[0]!, oy = +min[1]!, oz = +min[2]!;
     // Bucket by the cell hash's top bits (counting sort, stable), carrying each cell and its tentative id.
     let bits = 0;
     while (bits < 24 && n >>> bits > BUCKET_TARGET) bits++;
     const nb = 1 << bits;
     const start = new Int32Array(nb + 1);
-    countBuckets(coords, n, q, HASH_BITS - bits, start);
+    countBuckets(coords, n, inv, ox, oy, oz, HASH_BITS - bits, start);
     let largest = 0;
     for (let b = 0; b < nb; b++) { largest = Math.max(largest, start[b + 1]!); start[b + 1]! += start[b]!; }
     // Sized for the edge census too, which reuses it (see topology.ts).
     const sorted = this.scratch.int32("weld.sorted", Math.max(4 * n, census ? idx.length : 0));
-    scatterCells(coords, n, q, HASH_BITS - bits, start.slice(0, nb), sorted);
+    scatterCells(coords, n, inv, ox, oy, oz, HASH_BITS - bits, start.slice(0, nb), sorted);
     let size = 16;
     while (size < 2 * largest) size *= 2;
     const map = this.scratch.int32("weld.map", n); // tentative id → first tentative id of its cell, then → final id
@@ -144,24 +144,19 @@ export class Welder {
 // The resolution's loops, one function each: a function holding several long loops is optimised
 // loop by loop as each gets hot, and runs the others unoptimised (boxing every number) meanwhile.
 
-/**
- * Cell of a coordinate: offsets from the minimum are ≥ 0, so truncating v + 0.5 rounds half up
- * (as Math.round). Cells are recomputed in each pass rather than stored: fresh memory costs more
- * than the arithmetic.
- */
-interface Quantiser { inv: number; ox: number; oy: number; oz: number }
+// Cell of a coordinate: offsets from the minimum (ox, oy, oz) are ≥ 0, so truncating v + 0.5 rounds
+// half up (as Math.round); inv is 1 / pitch. Cells are recomputed in each pass rather than stored:
+// fresh memory costs more than the arithmetic.
 
-function countBuckets(coords: Float32Array, n: number, q: Quantiser, shift: number, start: Int32Array): void {
+function countBuckets(coords: Float32Array, n: number, inv: number, ox: number, oy: number, oz: number, shift: number, start: Int32Array): void {
   if (shift >= HASH_BITS) { start[1] = n; return; }
-  const { inv, ox, oy, oz } = q;
   for (let i = 0; i < n; i++) {
     const qx = ((coords[3 * i]! - ox) * inv + 0.5) | 0, qy = ((coords[3 * i + 1]! - oy) * inv + 0.5) | 0, qz = ((coords[3 * i + 2]! - oz) * inv + 0.5) | 0;
     start[(hash3(qx, qy, qz) >>> shift) + 1]!++;
   }
 }
 
-function scatterCells(coords: Float32Array, n: number, q: Quantiser, shift: number, fill: Int32Array, sorted: Int32Array): void {
-  const { inv, ox, oy, oz } = q;
+function scatterCells(coords: Float32Array, n: number, inv: number, ox: number, oy: number, oz: number, shift: number, fill: Int32Array, sorted: Int32Array): void {
   const one = shift >= HASH_BITS;
   for (let i = 0; i < n; i++) {
     const qx = ((coords[3 * i]! - ox) * inv + 0.5) | 0, qy = ((coords[3 * i + 1]! - oy) * inv + 0.5) | 0, qz = ((coords[3 * i + 2]! - oz) * inv + 0.5) | 0;
