@@ -91,3 +91,46 @@ export function generateInstance(o: GenerateOptions): PlanInstance {
         : [1, 2, 3, 4, 5].map((weekday) => ({ weekday, open: "16:00", close: "01:00" }));
   return { now: new Date(now).toISOString(), timezone: "Europe/Berlin", attended, margin_mm: 5, gap_mm: 3, printers, parts };
 }
+
+/**
+ * The fairness case (bench and tests): one member sends `heavy` copies first, then `light` members
+ * send three small copies each, all PLA black, on four printers. Deterministic from its seed.
+ */
+export function fairnessInstance(seed: number, heavy = 120, light = 5, hours: GenerateOptions["hours"] = "all"): PlanInstance {
+  const base = generateInstance({ seed, printers: 4, instances: heavy, hours, owners: 1, dueFraction: 0 });
+  const parts: PlanInstance["parts"] = base.parts.map((p) => ({ ...p, material: "PLA", color: "black", priority: 0, owner: "heavy" }));
+  const rnd = mulberry32(seed + 7);
+  for (let m = 1; m <= light; m++) {
+    parts.push({
+      id: `light-${m}`,
+      footprint: [Math.round(15 + rnd() * 15), Math.round(15 + rnd() * 15)],
+      height: 10,
+      minutes: Math.round(20 + rnd() * 20),
+      material: "PLA",
+      color: "black",
+      layer_height: 0.2,
+      nozzle: 0.4,
+      quantity: 3,
+      due: null,
+      priority: 0,
+      owner: `light-${m}`,
+    });
+  }
+  const printers = base.printers.map((p) => ({ ...p, materials: ["PLA"], height: 250 }));
+  return { ...base, printers, parts };
+}
+
+/** From `now`, minutes until the last copy of each owner is printed. */
+export function lastCopyMinutes(inst: PlanInstance, plates: readonly { end: string; items: readonly { part: string }[] }[]): Map<string, number> {
+  const owner = new Map(inst.parts.map((p) => [p.id, p.owner ?? "(no owner)"]));
+  const nowMs = Date.parse(inst.now);
+  const out = new Map<string, number>();
+  for (const plate of plates) {
+    const t = (Date.parse(plate.end) - nowMs) / 60_000;
+    for (const it of plate.items) {
+      const o = owner.get(it.part)!;
+      out.set(o, Math.max(out.get(o) ?? 0, t));
+    }
+  }
+  return out;
+}

@@ -1,13 +1,11 @@
 import { MaxRectsBin, PACKING_LOGIC } from "maxrects-packer/dist/maxrects-packer.mjs";
 import type { PartInstance } from "./fair-share";
-import type { Part, Printer } from "./schema";
+import { bedRect, paddedArea } from "./layout";
+import { brimOf, groupKey } from "./rules";
+import type { Printer } from "./schema";
 
-/** Parts that may share a plate: same material and colour, same layer height and nozzle. */
-export function groupKey(p: Pick<Part, "material" | "color" | "layer_height" | "nozzle">): string {
-  return `${p.material}\u0000${p.color}\u0000${p.layer_height}\u0000${p.nozzle}`;
-}
-
-export type PackedItem = { inst: PartInstance; x: number; y: number; rotated: boolean; w: number; d: number };
+/** x, y: the part's own lower-left corner; w × d its footprint as placed; its brim lies around it. */
+export type PackedItem = { inst: PartInstance; x: number; y: number; rotated: boolean; w: number; d: number; brim: number };
 export type PackedPlate = {
   group: string;
   material: string;
@@ -85,7 +83,7 @@ export function packPlates(ranked: readonly PartInstance[], printers: readonly P
     if (!t) takers.set(x.part.id, (t = printers.filter((p) => eligible(x, p))));
     return t;
   };
-  const padded = (x: PartInstance) => (x.part.footprint[0] + opt.gapMm) * (x.part.footprint[1] + opt.gapMm);
+  const padded = (x: PartInstance) => paddedArea(x, opt.gapMm);
 
   // 0. Plates for the instances at risk of being late, earliest due first: each goes to the printer
   //    with the least such work so far and is kept short enough to end by its first due time, then
@@ -93,7 +91,7 @@ export function packPlates(ranked: readonly PartInstance[], printers: readonly P
   const taken = new Set<PartInstance>();
   const urgentPlates: PackedPlate[] = [];
   const urgentLoad = new Map(printers.map((p) => [p.id, 0]));
-  const dueMs = (x: PartInstance) => Date.parse(x.part.due!);
+  const dueMs = (x: PartInstance) => x.target!;
   // The front of the queue: everything ranked up to the last instance at risk (so higher
   // priorities too), in rank order, which is earliest due first among those at risk.
   let front = 0;
@@ -105,7 +103,7 @@ export function packPlates(ranked: readonly PartInstance[], printers: readonly P
   for (const head of urgent) {
     if (taken.has(head)) continue;
     // A printer that can still finish it in time, with the least such work, larger bed on ties.
-    const untilDueOn = (p: Printer) => (head.part.due === null ? Number.POSITIVE_INFINITY : (dueMs(head) - opt.nowMs) / 60_000 - urgentLoad.get(p.id)!);
+    const untilDueOn = (p: Printer) => (head.target === null ? Number.POSITIVE_INFINITY : (dueMs(head) - opt.nowMs) / 60_000 - urgentLoad.get(p.id)!);
     const inTime = (p: Printer) => untilDueOn(p) >= p.startup_minutes + head.part.minutes;
     const printer = [...takersOf(head)].sort(
       (a, b) =>
@@ -355,7 +353,7 @@ function fillPlate(
     logic,
   });
   const usable = (bedW - 2 * opt.marginMm + opt.gapMm) * (bedD - 2 * opt.marginMm + opt.gapMm);
-  const padded = (x: PartInstance) => (x.part.footprint[0] + opt.gapMm) * (x.part.footprint[1] + opt.gapMm);
+  const padded = (x: PartInstance) => paddedArea(x, opt.gapMm);
   let freeArea = usable;
   let minutes = printer.startup_minutes;
   const items: PackedItem[] = [];
@@ -363,7 +361,7 @@ function fillPlate(
     if (padded(x) > freeArea + 1e-9) return false;
     if (items.length > 0 && minutes + x.part.minutes > capMinutes) return false;
     if (!eligible(x, printer)) return false;
-    const [w, d] = x.part.footprint;
+    const [w, d] = bedRect(x);
     // A free rectangle must hold it (either way round) before the packer is asked: failed adds are slow.
     const pw = w + opt.gapMm;
     const pd = d + opt.gapMm;
@@ -378,8 +376,10 @@ function fillPlate(
     const r = bin.add(w, d, x) as Rect | undefined;
     if (!r) return false;
     const rotated = Boolean(r.rot);
+    const brim = brimOf(x.part);
+    const [fw, fd] = x.part.footprint;
     // A turned rectangle keeps its width and height unswapped: its footprint is d × w.
-    items.push({ inst: x, x: r.x, y: r.y, rotated, w: rotated ? d : w, d: rotated ? w : d });
+    items.push({ inst: x, x: r.x + brim, y: r.y + brim, rotated, w: rotated ? fd : fw, d: rotated ? fw : fd, brim });
     freeArea -= padded(x);
     minutes += x.part.minutes;
     return true;
@@ -420,8 +420,8 @@ function fillPlate(
   let maxHeight = 0;
   let partMinutes = 0;
   for (const it of items) {
-    maxX = Math.max(maxX, it.x + it.w);
-    maxY = Math.max(maxY, it.y + it.d);
+    maxX = Math.max(maxX, it.x + it.w + it.brim);
+    maxY = Math.max(maxY, it.y + it.d + it.brim);
     maxHeight = Math.max(maxHeight, it.inst.part.height);
     partMinutes += it.inst.part.minutes;
   }

@@ -1,9 +1,12 @@
 import { createAttendedCalendar, type AttendedCalendar } from "@/lib/calendar/attended-hours";
 import { checkPartInstance } from "./check-part";
 import { rankInstances, type PartInstance } from "./fair-share";
+import { centreLayout } from "./layout";
+import { touchMinutes } from "./objective";
 import { packPlates, type PackedPlate } from "./pack";
+import { footprintWithBrim, housingAllows, needsEnclosure, spoolAtHand } from "./rules";
 import { plateLateness, schedulePlates, type Timed } from "./schedule";
-import type { Plate, PlanInstance, PlanMetrics, PlanOutput, Printer, Unplaced } from "./schema";
+import type { AssemblyCompletion, Plate, PlanInstance, PlanMetrics, PlanOutput, Printer, Unplaced } from "./schema";
 
 const MIN = 60_000;
 
@@ -15,6 +18,8 @@ export const LOAD_SHARES: readonly (number | null)[] = [1, 1 / 2, 1 / 3];
 export const UNATTENDED_CAUTION =
   "This plate is still printing at closing time and runs unattended. Unattended and overnight printing is a fire risk: " +
   "follow the workshop's rules (and local codes) for leaving printers running, or start it when it can finish attended.";
+export const FUMES_CAUTION =
+  "ABS and ASA give off fumes while printing: keep the enclosure closed and the room ventilated, as the workshop's rules say.";
 
 /** Plan an instance (already validated by planInstanceSchema): pack, then schedule. Deterministic. */
 export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): PlanOutput {
@@ -22,9 +27,10 @@ export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): Pla
   const calendar = createAttendedCalendar(inst.timezone, inst.attended);
   const unplaced: Unplaced[] = [];
   const totalMinutes = inst.parts.reduce((s, p) => s + p.minutes * p.quantity, 0);
-  const ranked = rankInstances(inst.parts, nowMs, totalMinutes / inst.printers.length);
+  const ranked = rankInstances(inst.parts, nowMs, totalMinutes / inst.printers.length, inst.printers.length);
 
-  // Which printers can take each part (the same check a member's upload goes through).
+  // Which printers can take each part: the member's upload check on the footprint with its brim,
+  // then the printer's housing; and a spool of its material and colour must be in the workshop.
   const allowed = new Map<string, Set<string>>();
   const reasons = new Map<string, string>();
   const accepted: PartInstance[] = [];
@@ -32,19 +38,29 @@ export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): Pla
   for (const x of ranked) {
     let ok = allowed.get(x.part.id);
     if (!ok) {
-      const check = checkPartInstance(x.part, inst.printers, inst.margin_mm);
+      const housed = inst.printers.filter((p) => housingAllows(p, x.part.material));
+      const check = checkPartInstance({ ...x.part, footprint: footprintWithBrim(x.part) }, housed, inst.margin_mm);
       ok = new Set(check.ok ? check.printers : []);
       allowed.set(x.part.id, ok);
-      if (!check.ok) reasons.set(x.part.id, check.reason);
+      if (housed.length === 0 && needsEnclosure(x.part.material)) reasons.set(x.part.id, `${x.part.material} needs an enclosed printer and none is marked enclosed`);
+      else if (!check.ok) reasons.set(x.part.id, check.reason);
+      else if (!spoolAtHand(inst, { material: x.part.material, color: x.part.color })) {
+        allowed.set(x.part.id, (ok = new Set()));
+        reasons.set(x.part.id, `waiting for a ${x.part.material} ${x.part.color} spool: the workshop has none`);
+      }
     }
-    if (neverOpen) unplaced.push({ part: x.part.id, instance: x.instance, reason: "the workshop has no attended hours, so nobody can start a plate" });
+    if (neverOpen) unplaced.push({ part: x.part.id, instance: x.instance, reason: "the workshop has no opening hours, so nobody can start a plate" });
     else if (ok.size === 0) unplaced.push({ part: x.part.id, instance: x.instance, reason: reasons.get(x.part.id)! });
     else accepted.push(x);
   }
 
+  // The unattended policy: when plates may not run past closing (or only so long), a plate is no
+  // longer than the longest open spell (plus the allowance), and the scheduler ends it in time.
+  const unattended = inst.unattended ? { allowed: inst.unattended.allowed, maxHours: inst.unattended.max_hours } : { allowed: true, maxHours: null };
   const spell = calendar.longestSpellMinutes();
   const alwaysOpen = calendar.closingAfter(nowMs) === null && !neverOpen;
-  const ctx = { printers: inst.printers, calendar, nowMs, marginMm: inst.margin_mm };
+  const spellCap = alwaysOpen || (unattended.allowed && unattended.maxHours === null) ? null : spell + (unattended.allowed ? unattended.maxHours! * 60 : 0);
+  const ctx = { printers: inst.printers, calendar, nowMs, marginMm: inst.margin_mm, unattended, touchMinutes: touchMinutes(inst) };
   // The cap on plate time (a share of the average printer load) is a trade: long plates are fuller,
   // short ones spread the work better. Unless the caller fixes it, each share in LOAD_SHARES is
   // packed and given a quick schedule (no local search); the plan keeps the one with the fewest
@@ -58,7 +74,7 @@ export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): Pla
     const packed = packPlates(accepted, inst.printers, (x, p) => allowed.get(x.part.id)!.has(p.id), {
       marginMm: inst.margin_mm,
       gapMm: inst.gap_mm,
-      spellCapMinutes: alwaysOpen ? null : spell,
+      spellCapMinutes: spellCap,
       balanceTail: options.balanceTail ?? false,
       loadShare,
       chunkFill: 0.92,
@@ -90,16 +106,19 @@ export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): Pla
       unplaced.push({ part: it.inst.part.id, instance: it.inst.instance, reason: "no attended start time clear of the printers' unavailable windows was found" });
     }
   }
-  const plates = toPlates(timed, calendar);
+  const plates = toPlates(timed, calendar, inst);
   unplaced.sort((a, b) => (a.part < b.part ? -1 : a.part > b.part ? 1 : a.instance - b.instance));
-  return { plates, unplaced, metrics: computeMetrics(inst, plates) };
+  return { plates, unplaced, metrics: computeMetrics(inst, plates), assemblies: assemblyCompletions(inst, plates, unplaced) };
 }
 
-function toPlates(timed: readonly Timed[], calendar: AttendedCalendar): Plate[] {
+function toPlates(timed: readonly Timed[], calendar: AttendedCalendar, inst: PlanInstance): Plate[] {
+  const printers = new Map(inst.printers.map((p) => [p.id, p]));
   const sorted = [...timed].sort((a, b) => a.start - b.start || (a.printer < b.printer ? -1 : 1));
   return sorted.map((t, i) => {
     const closing = calendar.closingAfter(t.start);
     const unattended = closing !== null && t.end > closing;
+    const cautions = [unattended ? UNATTENDED_CAUTION : null, needsEnclosure(t.plate.material) ? FUMES_CAUTION : null].filter(Boolean);
+    const items = centreLayout(t.plate.items, printers.get(t.printer)!.bed);
     return {
       id: `plate-${String(i + 1).padStart(3, "0")}`,
       printer: t.printer,
@@ -107,20 +126,54 @@ function toPlates(timed: readonly Timed[], calendar: AttendedCalendar): Plate[] 
       color: t.plate.color,
       start: new Date(t.start).toISOString(),
       end: new Date(t.end).toISOString(),
-      items: [...t.plate.items]
+      items: items
         .sort((a, b) => a.inst.rank - b.inst.rank)
         .map((it) => ({ part: it.inst.part.id, instance: it.inst.instance, x: round(it.x), y: round(it.y), rotated: it.rotated })),
       runs_unattended: unattended,
-      caution: unattended ? UNATTENDED_CAUTION : null,
+      caution: cautions.length ? cautions.join(" ") : null,
+      spool_change: t.spoolChange,
     };
   });
+}
+
+/** Per member's assembly: its copies, when the last one prints, and how many could not be planned. */
+export function assemblyCompletions(inst: PlanInstance, plates: readonly Plate[], unplaced: readonly Unplaced[]): AssemblyCompletion[] {
+  const parts = new Map(inst.parts.map((p) => [p.id, p]));
+  const out = new Map<string, AssemblyCompletion>();
+  const entry = (partId: string) => {
+    const part = parts.get(partId);
+    if (!part?.assembly) return null;
+    const owner = part.owner ?? "(no owner)";
+    const key = `${owner}\u0000${part.assembly}`;
+    let e = out.get(key);
+    if (!e) out.set(key, (e = { owner, assembly: part.assembly, copies: 0, last_end: null, unplaced: 0 }));
+    return e;
+  };
+  for (const plate of plates) {
+    for (const it of plate.items) {
+      const e = entry(it.part);
+      if (!e) continue;
+      e.copies += 1;
+      if (e.last_end === null || Date.parse(plate.end) > Date.parse(e.last_end)) e.last_end = plate.end;
+    }
+  }
+  for (const u of unplaced) {
+    const e = entry(u.part);
+    if (e) {
+      e.copies += 1;
+      e.unplaced += 1;
+    }
+  }
+  return [...out.values()].sort((a, b) => (a.owner < b.owner ? -1 : a.owner > b.owner ? 1 : a.assembly < b.assembly ? -1 : a.assembly > b.assembly ? 1 : 0));
 }
 
 const round = (v: number) => Math.round(v * 1000) / 1000;
 
 /**
  * Metrics (README.md, "Scoring"): makespan from `now` to the last plate's end; lateness per
- * instance against its part's due time; bed fill = footprint area / bed area less the margins.
+ * instance against its part's due time; bed fill = footprint area / bed area less the margins
+ * (of the plates, never of empty beds); touches = a start and a take-off per plate plus one per
+ * spool change (the printer's spool, or its previous plate's, differs; nothing loaded counts).
  */
 export function computeMetrics(inst: PlanInstance, plates: readonly Plate[]): PlanMetrics {
   const nowMs = Date.parse(inst.now);
@@ -130,6 +183,14 @@ export function computeMetrics(inst: PlanInstance, plates: readonly Plate[]): Pl
   let late = 0;
   let lateness = 0;
   let fillSum = 0;
+  let changes = 0;
+  const held = new Map<string, { material: string; color: string } | undefined>(inst.printers.map((p) => [p.id, p.loaded]));
+  const byStart = [...plates].sort((a, b) => Date.parse(a.start) - Date.parse(b.start));
+  for (const plate of byStart) {
+    const h = held.get(plate.printer);
+    if (!h || h.material !== plate.material || h.color !== plate.color) changes += 1;
+    held.set(plate.printer, { material: plate.material, color: plate.color });
+  }
   for (const plate of plates) {
     const end = Date.parse(plate.end);
     makespan = Math.max(makespan, (end - nowMs) / MIN);
@@ -152,5 +213,8 @@ export function computeMetrics(inst: PlanInstance, plates: readonly Plate[]): Pl
     late_instances: late,
     total_lateness_minutes: round(lateness),
     mean_bed_fill: plates.length ? round(fillSum / plates.length) : 0,
+    touches: 2 * plates.length + changes,
+    spool_changes: changes,
+    unattended_plates: plates.filter((p) => p.runs_unattended).length,
   };
 }

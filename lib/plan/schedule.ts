@@ -1,13 +1,19 @@
 import type { AttendedCalendar } from "@/lib/calendar/attended-hours";
 import type { PackedPlate } from "./pack";
-import type { Printer } from "./schema";
+import { housingAllows } from "./rules";
+import type { Printer, SpoolChange } from "./schema";
 
-export type Timed = { plate: PackedPlate; printer: string; start: number; end: number; changeover: boolean };
+/** changeover: the printer's changeover minutes are added; spoolChange: the operator changes the spool (a touch). */
+export type Timed = { plate: PackedPlate; printer: string; start: number; end: number; changeover: boolean; spoolChange: SpoolChange | null };
 export type ScheduleContext = {
   printers: readonly Printer[];
   calendar: AttendedCalendar;
   nowMs: number;
   marginMm: number;
+  /** May a plate run past closing, and how long (hours, null = no cap)? */
+  unattended: { allowed: boolean; maxHours: number | null };
+  /** Operator minutes a touch (here: a spool change) is worth against a later finish. */
+  touchMinutes: number;
 };
 
 const MIN = 60_000;
@@ -18,6 +24,7 @@ export function plateFits(plate: PackedPlate, p: Printer, marginMm: number): boo
   const nozzle = plate.items[0]!.inst.part.nozzle;
   return (
     p.materials.includes(plate.material) &&
+    housingAllows(p, plate.material) &&
     Math.abs(p.nozzle - nozzle) < 1e-9 &&
     plate.maxHeight <= p.height + 1e-9 &&
     plate.extent[0] <= p.bed[0] - marginMm + 1e-6 &&
@@ -41,6 +48,14 @@ export function earliestStart(ctx: ScheduleContext, p: Printer, t: number, minut
     const open = nextOpening(ctx, at);
     if (open === null) return null;
     const end = open + minutes * MIN;
+    const limit = endLimit(ctx, open);
+    if (end > limit) {
+      // It would run past closing longer than the policy allows: try from the next opening.
+      const closing = ctx.calendar.closingAfter(open);
+      if (closing === null || closing <= at) return null;
+      at = closing;
+      continue;
+    }
     const clash = windows.find(([from, to]) => open < to && from < end);
     if (!clash) return open;
     at = clash[1];
@@ -60,6 +75,14 @@ function dueOf(part: PackedPlate["items"][number]["inst"]["part"]): number | nul
   let d = dueCache.get(part);
   if (d === undefined) dueCache.set(part, (d = part.due === null ? null : Date.parse(part.due)));
   return d;
+}
+
+/** The latest end the unattended policy allows for a plate started at `start`. */
+function endLimit(ctx: ScheduleContext, start: number): number {
+  if (ctx.unattended.allowed && ctx.unattended.maxHours === null) return Number.POSITIVE_INFINITY;
+  const closing = ctx.calendar.closingAfter(start);
+  if (closing === null) return Number.POSITIVE_INFINITY;
+  return closing + (ctx.unattended.allowed ? ctx.unattended.maxHours! * 60 * MIN : 0);
 }
 
 /** When can the next plate start after one ends at e? Someone must take it off first. */
@@ -103,7 +126,7 @@ function nextOpening(ctx: ScheduleContext, t: number): number | null {
   return sp.starts[lo]! <= t ? t : sp.starts[lo]!;
 }
 
-type Lane = { printer: Printer; plates: PackedPlate[]; timed: Timed[]; lateness: number; finish: number; ok: boolean };
+type Lane = { printer: Printer; plates: PackedPlate[]; timed: Timed[]; lateness: number; finish: number; changes: number; ok: boolean };
 
 function spoolDiffers(loaded: Printer["loaded"], plate: PackedPlate): boolean {
   return !loaded || loaded.material !== plate.material || loaded.color !== plate.color;
@@ -115,11 +138,13 @@ function timeLane(ctx: ScheduleContext, lane: Lane): void {
   lane.timed = [];
   lane.lateness = 0;
   lane.finish = ctx.nowMs;
+  lane.changes = 0;
   lane.ok = true;
   let ready = ctx.nowMs;
   let loaded = lane.printer.loaded;
   for (const plate of lane.plates) {
-    const change = spoolDiffers(loaded, plate) && lane.printer.changeover_minutes > 0;
+    const differs = spoolDiffers(loaded, plate);
+    const change = differs && lane.printer.changeover_minutes > 0;
     const minutes = plateMinutes(plate, lane.printer, change);
     const start = earliestStart(ctx, lane.printer, ready, minutes);
     if (start === null) {
@@ -127,7 +152,9 @@ function timeLane(ctx: ScheduleContext, lane: Lane): void {
       return;
     }
     const end = start + minutes * MIN;
-    lane.timed.push({ plate, printer: lane.printer.id, start, end, changeover: change });
+    const spoolChange = differs ? { from: loaded ?? null, to: { material: plate.material, color: plate.color } } : null;
+    lane.timed.push({ plate, printer: lane.printer.id, start, end, changeover: change, spoolChange });
+    if (differs) lane.changes += 1;
     lane.lateness += plateLateness(plate, end);
     lane.finish = end;
     ready = readyAfter(ctx, end);
@@ -145,18 +172,22 @@ export function plateLateness(plate: PackedPlate, end: number): number {
 }
 
 type Score = [number, number, number];
-function score(lanes: readonly Lane[], nowMs: number): Score {
+/** [total lateness, spool changes × touch minutes + finish, sum of squared printer finishes]: objective.ts's order. */
+function score(lanes: readonly Lane[], ctx: ScheduleContext): Score {
+  const nowMs = ctx.nowMs;
   let late = 0;
   let makespan = 0;
   let sq = 0;
+  let changes = 0;
   for (const l of lanes) {
     if (!l.ok) return [Infinity, Infinity, Infinity];
     late += l.lateness;
-    makespan = Math.max(makespan, l.finish);
+    changes += l.changes;
+    makespan = Math.max(makespan, (l.finish - nowMs) / MIN);
     // Sum of squared finishes: a tie-breaker that rewards evening out the printers.
     sq += ((l.finish - nowMs) / MIN) ** 2;
   }
-  return [late, makespan, sq];
+  return [late, makespan + changes * ctx.touchMinutes, sq];
 }
 const better = (a: Score, b: Score) =>
   a[0] < b[0] - EPS || (Math.abs(a[0] - b[0]) <= EPS && (a[1] < b[1] - EPS || (Math.abs(a[1] - b[1]) <= EPS && a[2] < b[2] - EPS)));
@@ -169,7 +200,7 @@ const better = (a: Score, b: Score) =>
  * Each printer always runs its plates in rank order, so the fair-share order holds per printer.
  */
 export function schedulePlates(plates: readonly PackedPlate[], ctx: ScheduleContext, maxPasses = 300): { timed: Timed[]; unscheduled: PackedPlate[] } {
-  const lanes: Lane[] = ctx.printers.map((printer) => ({ printer, plates: [], timed: [], lateness: 0, finish: ctx.nowMs, ok: true }));
+  const lanes: Lane[] = ctx.printers.map((printer) => ({ printer, plates: [], timed: [], lateness: 0, finish: ctx.nowMs, changes: 0, ok: true }));
   const fits = new Map<PackedPlate, Lane[]>();
   const unscheduled: PackedPlate[] = [];
   const ordered = [...plates].sort((a, b) => a.rank - b.rank);
@@ -180,16 +211,19 @@ export function schedulePlates(plates: readonly PackedPlate[], ctx: ScheduleCont
     // work between bed sizes); the local search below may still move it to a larger bed.
     const packedBed = ctx.printers.find((p) => p.id === plate.packedFor)?.bed;
     const own = packedBed ? options.filter((l) => l.printer.bed[0] === packedBed[0] && l.printer.bed[1] === packedBed[1]) : [];
-    let best: { lane: Lane; end: number; change: boolean } | null = null;
+    let best: { lane: Lane; end: number; cost: number } | null = null;
     for (const lane of own.length > 0 ? own : options) {
       const last = lane.timed[lane.timed.length - 1];
       const loaded = last ? { material: last.plate.material, color: last.plate.color } : lane.printer.loaded;
-      const change = spoolDiffers(loaded, plate) && lane.printer.changeover_minutes > 0;
+      const differs = spoolDiffers(loaded, plate);
+      const change = differs && lane.printer.changeover_minutes > 0;
       const minutes = plateMinutes(plate, lane.printer, change);
       const start = earliestStart(ctx, lane.printer, last ? readyAfter(ctx, last.end) : ctx.nowMs, minutes);
       if (start === null) continue;
       const end = start + minutes * MIN;
-      if (!best || end < best.end || (end === best.end && !change && best.change)) best = { lane, end, change };
+      // A spool change is a touch: it counts as touchMinutes of a later end.
+      const cost = end + (differs ? ctx.touchMinutes * MIN : 0);
+      if (!best || cost < best.cost) best = { lane, end, cost };
     }
     if (!best) {
       unscheduled.push(plate);
@@ -205,7 +239,7 @@ export function schedulePlates(plates: readonly PackedPlate[], ctx: ScheduleCont
 function improve(lanes: Lane[], fits: Map<PackedPlate, Lane[]>, ctx: ScheduleContext, maxPasses: number): void {
   const laneOf = new Map<PackedPlate, Lane>();
   for (const l of lanes) for (const p of l.plates) laneOf.set(p, l);
-  let current = score(lanes, ctx.nowMs);
+  let current = score(lanes, ctx);
   // A budget on trial re-timings keeps large queues fast; small ones finish well within it.
   let budget = 6_000;
   const trial = (a: Lane, b: Lane, mutate: () => void, undo: () => void): boolean => {
@@ -213,7 +247,7 @@ function improve(lanes: Lane[], fits: Map<PackedPlate, Lane[]>, ctx: ScheduleCon
     mutate();
     timeLane(ctx, a);
     timeLane(ctx, b);
-    const s = score(lanes, ctx.nowMs);
+    const s = score(lanes, ctx);
     if (better(s, current)) {
       current = s;
       return true;

@@ -40,6 +40,8 @@ export const printerSchema = z.object({
     .default([]),
   loaded: spoolSchema.optional(),
   changeover_minutes: nonNegative.default(0),
+  /** Enclosed (or ventilated) printer. Absent = no restriction; false keeps ABS/ASA off it. */
+  enclosed: z.boolean().optional(),
 });
 
 export const partSchema = z.object({
@@ -55,6 +57,17 @@ export const partSchema = z.object({
   due: isoTime.nullable().default(null),
   priority: z.number().int().default(0),
   owner: name.optional(),
+  /** The member's assembly the part belongs to: the plan reports when its last copy prints. */
+  assembly: name.optional(),
+  /** Brim width around the footprint, mm; absent = the material's default (rules.ts). */
+  brim_mm: nonNegative.optional(),
+});
+
+/** Unattended printing: absent = allowed, no cap (as before this setting existed). */
+export const unattendedSchema = z.object({
+  allowed: z.boolean(),
+  /** Longest stretch a plate may run while nobody is there, hours; null = no cap. */
+  max_hours: positive.nullable().default(null),
 });
 
 export const planInstanceSchema = z
@@ -66,6 +79,11 @@ export const planInstanceSchema = z
     gap_mm: nonNegative,
     printers: z.array(printerSchema).min(1),
     parts: z.array(partSchema),
+    unattended: unattendedSchema.optional(),
+    /** Spools the workshop holds (material and colour). Absent = any material and colour is at hand. */
+    spools: z.array(spoolSchema).optional(),
+    /** Operator minutes one touch is worth against a later finish (objective.ts); default 30. */
+    touch_minutes: nonNegative.optional(),
   })
   .superRefine((inst, ctx) => {
     const seen = new Set<string>();
@@ -86,6 +104,9 @@ export type Printer = PlanInstance["printers"][number];
 export type Part = PlanInstance["parts"][number];
 
 export type PlateItem = { part: string; instance: number; x: number; y: number; rotated: boolean };
+export type Spool = { material: string; color: string };
+/** A spool change before a plate: what is on the printer (null = nothing known) and what goes on. */
+export type SpoolChange = { from: Spool | null; to: Spool };
 export type Plate = {
   id: string;
   printer: string;
@@ -97,6 +118,8 @@ export type Plate = {
   /** True when the plate is still printing at closing time: nobody is there to watch it. */
   runs_unattended: boolean;
   caution: string | null;
+  /** Set when the operator must change the spool before starting this plate (one touch). */
+  spool_change: SpoolChange | null;
 };
 export type Unplaced = { part: string; instance: number; reason: string };
 export type PlanMetrics = {
@@ -105,8 +128,14 @@ export type PlanMetrics = {
   late_instances: number;
   total_lateness_minutes: number;
   mean_bed_fill: number;
+  /** Operator touches: a start and a take-off per plate, plus one per spool change. */
+  touches: number;
+  spool_changes: number;
+  unattended_plates: number;
 };
-export type PlanOutput = { plates: Plate[]; unplaced: Unplaced[]; metrics: PlanMetrics };
+/** When the last copy of a member's assembly prints (parts without an assembly are left out). */
+export type AssemblyCompletion = { owner: string; assembly: string; copies: number; last_end: string | null; unplaced: number };
+export type PlanOutput = { plates: Plate[]; unplaced: Unplaced[]; metrics: PlanMetrics; assemblies: AssemblyCompletion[] };
 
 /** Parse an instance; on failure, one line per problem, each naming the field path. */
 export function parsePlanInstance(data: unknown): { ok: true; instance: PlanInstance } | { ok: false; errors: string[] } {

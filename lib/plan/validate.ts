@@ -1,5 +1,6 @@
 import { createAttendedCalendar } from "@/lib/calendar/attended-hours";
 import { computeMetrics } from "./plan";
+import { brimOf, housingAllows, spoolAtHand } from "./rules";
 import type { Part, PlanInstance, PlanOutput, Printer } from "./schema";
 
 const EPS = 1e-6;
@@ -41,6 +42,8 @@ export function validatePlan(inst: PlanInstance, out: PlanOutput): string[] {
     }
     if (plate.items.length === 0) errors.push(`${where}: no items`);
     if (!pr.materials.includes(plate.material)) errors.push(`${where}: printer ${pr.id} does not take ${plate.material}`);
+    if (!housingAllows(pr, plate.material)) errors.push(`${where}: ${plate.material} needs an enclosed printer, ${pr.id} is not`);
+    if (!spoolAtHand(inst, { material: plate.material, color: plate.color })) errors.push(`${where}: the workshop has no ${plate.material} ${plate.color} spool`);
     const rects: { x0: number; y0: number; x1: number; y1: number; label: string }[] = [];
     let partMinutes = 0;
     let groupOf: string | null = null;
@@ -57,9 +60,11 @@ export function validatePlan(inst: PlanInstance, out: PlanOutput): string[] {
       if (Math.abs(part.nozzle - pr.nozzle) > 1e-9) errors.push(`${where}: ${label} needs a ${part.nozzle} mm nozzle, ${pr.id} has ${pr.nozzle} mm`);
       if (part.height > pr.height + EPS) errors.push(`${where}: ${label} is ${part.height} mm tall, ${pr.id} builds ${pr.height} mm`);
       const [w, d] = it.rotated ? [part.footprint[1], part.footprint[0]] : part.footprint;
-      const r = { x0: it.x, y0: it.y, x1: it.x + w, y1: it.y + d, label };
+      // The brim (rules.ts) is part of what must stay on the bed and apart from the others.
+      const b = brimOf(part);
+      const r = { x0: it.x - b, y0: it.y - b, x1: it.x + w + b, y1: it.y + d + b, label };
       if (r.x0 < m - EPS || r.y0 < m - EPS || r.x1 > pr.bed[0] - m + EPS || r.y1 > pr.bed[1] - m + EPS) {
-        errors.push(`${where}: ${label} at (${it.x}, ${it.y}) size ${w} × ${d} leaves the bed less the ${m} mm margin`);
+        errors.push(`${where}: ${label} at (${it.x}, ${it.y}) size ${w} × ${d} leaves the bed less the ${m} mm margin${b ? ` (with its ${b} mm brim)` : ""}`);
       }
       for (const o of rects) {
         // Clearance between axis-aligned rectangles: Euclidean distance between their closest points.
@@ -84,6 +89,7 @@ export function validatePlan(inst: PlanInstance, out: PlanOutput): string[] {
   for (const pr of inst.printers) {
     const lane = out.plates.filter((p) => p.printer === pr.id).sort((a, b) => Date.parse(a.start) - Date.parse(b.start));
     let loaded = pr.loaded;
+    let held = pr.loaded ?? null;
     let prevEnd: number | null = null;
     let prevId = "";
     for (const plate of lane) {
@@ -99,6 +105,15 @@ export function validatePlan(inst: PlanInstance, out: PlanOutput): string[] {
       const change = (!loaded || loaded.material !== plate.material || loaded.color !== plate.color) && pr.changeover_minutes > 0;
       const need = (change ? pr.changeover_minutes : 0) + pr.startup_minutes + (minutesOf.get(plate) ?? 0);
       if (e - s < need * MIN - 1) errors.push(`${where}: lasts ${(e - s) / MIN} min, needs ${need} min${change ? " (with changeover)" : ""}`);
+      const differs = !held || held.material !== plate.material || held.color !== plate.color;
+      if (differs !== (plate.spool_change !== null)) errors.push(`${where}: spool_change is ${plate.spool_change ? "set" : "missing"}, the spool ${differs ? "changes" : "stays"}`);
+      held = { material: plate.material, color: plate.color };
+      const closing = cal.closingAfter(s);
+      if (closing !== null && (e > closing) !== plate.runs_unattended) errors.push(`${where}: runs_unattended is ${plate.runs_unattended}, it ends ${e > closing ? "after" : "by"} closing`);
+      if (closing !== null && inst.unattended && e > closing) {
+        const allowance = inst.unattended.allowed ? (inst.unattended.max_hours ?? Infinity) * 60 * MIN : 0;
+        if (e > closing + allowance + 1) errors.push(`${where}: runs ${((e - closing) / 3_600_000).toFixed(1)} h past closing; the workshop allows ${inst.unattended.allowed ? `${inst.unattended.max_hours} h` : "none"}`);
+      }
       for (const w of pr.unavailable) {
         if (s < Date.parse(w.to) && Date.parse(w.from) < e) errors.push(`${where}: overlaps ${pr.id}'s unavailable window ${w.from}–${w.to}`);
       }

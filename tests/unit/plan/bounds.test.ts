@@ -1,6 +1,8 @@
 import highsLoader from "highs";
 import { describe, expect, it } from "vitest";
-import { planLowerBounds, platesForFinishBound } from "@/lib/plan/bounds";
+import { calendarCapacities, calendarFinishBound, planLowerBounds, platesForFinishBound, printerCapacityMinutes } from "@/lib/plan/bounds";
+import { createAttendedCalendar } from "@/lib/calendar/attended-hours";
+import { footprintWithBrim } from "@/lib/plan/rules";
 import { generateInstance } from "@/lib/plan/generate-instance";
 import { planWorkshop } from "@/lib/plan/plan";
 import type { PlanInstance } from "@/lib/plan/schema";
@@ -11,7 +13,7 @@ import type { PlanInstance } from "@/lib/plan/schema";
  * area (parts grown by the gap). We solve that same LP with the HiGHS solver (npm `highs`) and
  * compare: the closed form (flattest parts to the largest beds) must equal the LP optimum.
  */
-async function lpOptimum(inst: PlanInstance, finish: number): Promise<number> {
+async function lpOptimum(inst: PlanInstance, finish: number, caps: number[] = inst.printers.map(() => finish)): Promise<number> {
   const highs = await highsLoader();
   const m = inst.margin_mm;
   const g = inst.gap_mm;
@@ -19,7 +21,8 @@ async function lpOptimum(inst: PlanInstance, finish: number): Promise<number> {
   const rows: string[] = [];
   const cap = inst.printers.map(() => [] as string[]);
   inst.parts.forEach((part, i) => {
-    const area = (part.footprint[0] + g) * (part.footprint[1] + g) * part.quantity;
+    const [fw, fd] = footprintWithBrim(part);
+    const area = (fw + g) * (fd + g) * part.quantity;
     const terms: string[] = [];
     inst.printers.forEach((p, k) => {
       const v = `y_${i}_${k}`;
@@ -30,7 +33,7 @@ async function lpOptimum(inst: PlanInstance, finish: number): Promise<number> {
     });
     rows.push(` a${i}: ${terms.join(" + ")} = 1`);
   });
-  cap.forEach((t, k) => rows.push(` c${k}: ${t.join(" + ")} <= ${finish}`));
+  cap.forEach((t, k) => rows.push(` c${k}: ${t.join(" + ")} <= ${caps[k]}`));
   const lp = ["Minimize", ` obj: ${obj.join(" + ")}`, "Subject To", ...rows, "End"].join("\n");
   const r = highs.solve(lp, { output_flag: false });
   if (r.Status !== "Optimal") throw new Error(`HiGHS: ${r.Status}`);
@@ -48,6 +51,37 @@ describe("plates needed for a given finish (LP bound)", () => {
       }
     });
   }
+
+  // The calendar-aware version: each printer's capacity is what the opening hours allow by F
+  // (open minutes, plus per closed stretch after an opening at most one plate). The same LP with
+  // those capacities, solved by HiGHS, must equal the closed form.
+  for (const seed of [321, 322, 323]) {
+    it(`seed ${seed}: with opening hours, the closed form equals the HiGHS LP optimum`, async () => {
+      const inst = { ...generateInstance({ seed, printers: 4, instances: 40, hours: "workdays", beds: [[150, 150], [200, 200], [256, 256]] }) };
+      const f0 = calendarFinishBound(inst);
+      expect(Number.isFinite(f0)).toBe(true);
+      for (const factor of [1, 1.3, 2]) {
+        const finish = factor * f0;
+        const caps = calendarCapacities(inst, finish);
+        expect(platesForFinishBound(inst, finish, { calendar: true })).toBeCloseTo(await lpOptimum(inst, finish, caps), 6);
+      }
+      // With unattended printing not allowed, only open minutes count: never more capacity.
+      const strict = { ...inst, unattended: { allowed: false, max_hours: null } };
+      expect(calendarFinishBound(strict)).toBeGreaterThanOrEqual(f0);
+    });
+  }
+
+  it("printer capacity: open minutes plus at most one plate across each closed stretch (worked example)", () => {
+    // Mon-Fri 08:00-18:00 UTC, from Monday 08:00 for 48 h: open Mon 10 h + Tue 10 h + Wed 08:00-08:00 = 0,
+    // closed Mon 18:00-Tue 08:00 (14 h) and Tue 18:00-Wed 08:00 (14 h). Hand-worked, common practice, no source.
+    const cal = createAttendedCalendar("UTC", [1, 2, 3, 4, 5].map((weekday) => ({ weekday, open: "08:00", close: "18:00" })));
+    const now = Date.UTC(2026, 2, 23, 8, 0); // a Monday
+    const spells = cal.openIntervals(now, now + 10 * 86_400_000);
+    expect(printerCapacityMinutes(spells, now, 48 * 60, 1e9, undefined)).toBe(20 * 60 + 28 * 60); // plates across both nights
+    expect(printerCapacityMinutes(spells, now, 48 * 60, 6 * 60, undefined)).toBe(20 * 60 + 12 * 60); // the longest plate is 6 h
+    expect(printerCapacityMinutes(spells, now, 48 * 60, 1e9, { allowed: false, max_hours: null })).toBe(20 * 60); // no unattended runs
+    expect(printerCapacityMinutes(spells, now, 48 * 60, 1e9, { allowed: true, max_hours: 2 })).toBe(20 * 60 + 4 * 60); // 2 h past closing
+  });
 
   it("is infinite when the printers cannot print every minute in time", () => {
     const inst = generateInstance({ seed: 304, printers: 3, instances: 20, hours: "all" });
