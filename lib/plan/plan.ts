@@ -13,7 +13,7 @@ const MIN = 60_000;
 export type PlanOptions = { balanceTail?: boolean; loadShare?: number | null; maxImprovements?: number };
 
 /** Caps on plate time tried, as shares of the average printer load (see planWorkshop). */
-export const LOAD_SHARES: readonly (number | null)[] = [1, 1 / 2, 1 / 3];
+export const LOAD_SHARES: readonly (number | null)[] = [null, 1, 1 / 2, 1 / 3];
 
 export const UNATTENDED_CAUTION =
   "This plate is still printing at closing time and runs unattended. Unattended and overnight printing is a fire risk: " +
@@ -61,12 +61,11 @@ export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): Pla
   const alwaysOpen = calendar.closingAfter(nowMs) === null && !neverOpen;
   const spellCap = alwaysOpen || (unattended.allowed && unattended.maxHours === null) ? null : spell + (unattended.allowed ? unattended.maxHours! * 60 : 0);
   const ctx = { printers: inst.printers, calendar, nowMs, marginMm: inst.margin_mm, unattended, touchMinutes: touchMinutes(inst) };
-  // The cap on plate time (a share of the average printer load) is a trade: long plates are fuller,
-  // short ones spread the work better. Unless the caller fixes it, each share in LOAD_SHARES is
-  // packed and given a quick schedule (no local search); the plan keeps the one with the fewest
-  // plates among those within a small tolerance of the least lateness and the earliest finish.
+  // The cap on plate time (none, or a share of the average printer load) is a trade: long plates
+  // are fuller, short ones spread the work better. Unless the caller fixes it, each share in
+  // LOAD_SHARES is packed and given a quick schedule (no local search), and the objective decides.
   const share = accepted.reduce((s, x) => s + x.part.minutes, 0) / inst.printers.length;
-  type Trial = { packed: PackedPlate[]; unscheduled: number; lateness: number; span: number; longest: number };
+  type Trial = { packed: PackedPlate[]; unscheduled: number; lateness: number; span: number; longest: number; changes: number };
   let previous: Trial | null = null;
   const trials = (options.loadShare !== undefined ? [options.loadShare] : LOAD_SHARES).map((loadShare): Trial => {
     // A cap no plate of the previous (looser) trial reached would pack the same plates again.
@@ -84,22 +83,24 @@ export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): Pla
     const quick = schedulePlates(packed, ctx, 0);
     let lateness = 0;
     let finish = nowMs;
+    let changes = 0;
     for (const t of quick.timed) {
       lateness += plateLateness(t.plate, t.end);
       finish = Math.max(finish, t.end);
+      if (t.spoolChange) changes += 1;
     }
     const byId = new Map(inst.printers.map((p) => [p.id, p]));
     const longest = Math.max(0, ...packed.map((p) => byId.get(p.packedFor)!.startup_minutes + p.partMinutes));
-    previous = { packed, unscheduled: quick.unscheduled.length, lateness, span: finish - nowMs, longest };
+    previous = { packed, unscheduled: quick.unscheduled.length, lateness, span: finish - nowMs, longest, changes };
     return previous;
   });
+  // The objective (objective.ts) picks among them: fewest unscheduled, least lateness (within 5 %),
+  // then touches × touch minutes + finish.
   const fewestUnscheduled = Math.min(...trials.map((t) => t.unscheduled));
   const pool = trials.filter((t) => t.unscheduled === fewestUnscheduled);
   const leastLate = Math.min(...pool.map((t) => t.lateness));
-  const earliest = Math.min(...pool.filter((t) => t.lateness <= leastLate * 1.05 + 1).map((t) => t.span));
-  const packed = pool
-    .filter((t) => t.lateness <= leastLate * 1.05 + 1 && t.span <= earliest * 1.03 + 1)
-    .reduce((best, t) => (t.packed.length < best.packed.length ? t : best)).packed;
+  const cost = (t: Trial) => (2 * t.packed.length + t.changes) * ctx.touchMinutes + t.span / MIN;
+  const packed = pool.filter((t) => t.lateness <= leastLate * 1.05 + 1).reduce((best, t) => (cost(t) < cost(best) ? t : best)).packed;
   const { timed, unscheduled } = schedulePlates(packed, ctx, options.maxImprovements);
   for (const plate of unscheduled) {
     for (const it of plate.items) {

@@ -79,7 +79,9 @@ describe("larger instances against lower bounds", () => {
       expect(out.metrics.plates).toBeGreaterThanOrEqual(lb.plates);
       expect(out.metrics.makespan_minutes).toBeGreaterThanOrEqual(lb.finishByMaterialMinutes - 1e-6);
       expect(out.metrics.plates).toBeLessThanOrEqual(2 * lb.plates);
-      expect(out.metrics.makespan_minutes).toBeLessThanOrEqual(1.2 * lb.finishByMaterialMinutes);
+      // The objective trades a later finish for fewer touches (30 min a touch by default), so the
+      // finish may move past the bound by more than the packing loss alone.
+      expect(out.metrics.makespan_minutes).toBeLessThanOrEqual(1.35 * lb.finishByMaterialMinutes);
     });
   }
 });
