@@ -142,16 +142,35 @@ function timeLane(ctx: ScheduleContext, lane: Lane): void {
   lane.ok = true;
   let ready = ctx.nowMs;
   let loaded = lane.printer.loaded;
-  for (const plate of lane.plates) {
-    const differs = spoolDiffers(loaded, plate);
-    const change = differs && lane.printer.changeover_minutes > 0;
-    const minutes = plateMinutes(plate, lane.printer, change);
-    const start = earliestStart(ctx, lane.printer, ready, minutes);
-    if (start === null) {
+  const left = [...lane.plates];
+  const order: PackedPlate[] = [];
+  while (left.length) {
+    // The next plate in rank order, unless one of the next few (SEQUENCE_WINDOW) avoids a spool
+    // change or a printer standing idle overnight (a plate ending while closed waits for the next
+    // opening) by more than it costs; only when the plate in turn carries no due time, so nothing
+    // is made late by it and the fair-share order moves by a plate or two at most.
+    let pick = 0;
+    if (!hasDue(left[0]!)) {
+      let bestCost = Number.POSITIVE_INFINITY;
+      for (let j = 0; j < Math.min(SEQUENCE_WINDOW, left.length); j++) {
+        const t = timeOne(ctx, lane.printer, left[j]!, ready, loaded);
+        if (!t) continue;
+        const idle = (readyAfter(ctx, t.end) - t.end) / MIN;
+        const cost = idle + (t.differs ? ctx.touchMinutes : 0) + j * SEQUENCE_STEP_MINUTES;
+        if (cost < bestCost - 1e-6) {
+          bestCost = cost;
+          pick = j;
+        }
+      }
+    }
+    const plate = left.splice(pick, 1)[0]!;
+    order.push(plate);
+    const t = timeOne(ctx, lane.printer, plate, ready, loaded);
+    if (!t) {
       lane.ok = false;
       return;
     }
-    const end = start + minutes * MIN;
+    const { start, end, change, differs } = t;
     const spoolChange = differs ? { from: loaded ?? null, to: { material: plate.material, color: plate.color } } : null;
     lane.timed.push({ plate, printer: lane.printer.id, start, end, changeover: change, spoolChange });
     if (differs) lane.changes += 1;
@@ -160,7 +179,23 @@ function timeLane(ctx: ScheduleContext, lane: Lane): void {
     ready = readyAfter(ctx, end);
     loaded = { material: plate.material, color: plate.color };
   }
+  lane.plates = order;
 }
+
+/** How many plates ahead in rank order a printer may look for its next one, and what a step costs. */
+const SEQUENCE_WINDOW = 3;
+const SEQUENCE_STEP_MINUTES = 20;
+
+function timeOne(ctx: ScheduleContext, p: Printer, plate: PackedPlate, ready: number, loaded: Printer["loaded"]) {
+  const differs = spoolDiffers(loaded, plate);
+  const change = differs && p.changeover_minutes > 0;
+  const minutes = plateMinutes(plate, p, change);
+  const start = earliestStart(ctx, p, ready, minutes);
+  if (start === null) return null;
+  return { start, end: start + minutes * MIN, change, differs };
+}
+
+const hasDue = (plate: PackedPlate) => plate.items.some((it) => it.inst.target !== null);
 
 export function plateLateness(plate: PackedPlate, end: number): number {
   let sum = 0;
