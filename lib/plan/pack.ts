@@ -437,3 +437,20 @@ function fillPlate(
     rank: Math.min(...items.map((it) => it.inst.rank)),
   };
 }
+
+/**
+ * Lay out exactly these copies on one printer's bed (several orders and maxrects heuristics; the
+ * first that places all of them), or null when they do not fit together. Used when copies move
+ * between plates after scheduling.
+ */
+export function packExact(items: readonly PartInstance[], printer: Printer, opt: Pick<PackOptions, "marginMm" | "gapMm">): PackedPlate | null {
+  if (items.length === 0) return null;
+  const full = opt as PackOptions;
+  const byRank = [...items].sort((a, b) => a.rank - b.rank);
+  for (const v of VARIANTS) {
+    const ordered = [...byRank].sort(v.sort(opt.gapMm));
+    const plate = fillPlate(ordered, [], printer, () => true, full, Number.POSITIVE_INFINITY, v.sort(opt.gapMm), v.logic, false);
+    if (plate.items.length === items.length) return plate;
+  }
+  return null;
+}

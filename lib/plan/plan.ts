@@ -60,7 +60,7 @@ export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): Pla
   const spell = calendar.longestSpellMinutes();
   const alwaysOpen = calendar.closingAfter(nowMs) === null && !neverOpen;
   const spellCap = alwaysOpen || (unattended.allowed && unattended.maxHours === null) ? null : spell + (unattended.allowed ? unattended.maxHours! * 60 : 0);
-  const ctx = { printers: inst.printers, calendar, nowMs, marginMm: inst.margin_mm, unattended, touchMinutes: touchMinutes(inst) };
+  const ctx = { printers: inst.printers, calendar, nowMs, marginMm: inst.margin_mm, gapMm: inst.gap_mm, unattended, touchMinutes: touchMinutes(inst) };
   // The cap on plate time (none, or a share of the average printer load) is a trade: long plates
   // are fuller, short ones spread the work better. Unless the caller fixes it, each share in
   // LOAD_SHARES is packed and given a quick schedule (no local search), and the objective decides.
@@ -101,7 +101,7 @@ export function planWorkshop(inst: PlanInstance, options: PlanOptions = {}): Pla
   const leastLate = Math.min(...pool.map((t) => t.lateness));
   const cost = (t: Trial) => (2 * t.packed.length + t.changes) * ctx.touchMinutes + t.span / MIN;
   const packed = pool.filter((t) => t.lateness <= leastLate * 1.05 + 1).reduce((best, t) => (cost(t) < cost(best) ? t : best)).packed;
-  const { timed, unscheduled } = schedulePlates(packed, ctx, options.maxImprovements);
+  const { timed, unscheduled } = schedulePlates(packed, ctx, options.maxImprovements, (x, p) => allowed.get(x.part.id)!.has(p.id));
   for (const plate of unscheduled) {
     for (const it of plate.items) {
       unplaced.push({ part: it.inst.part.id, instance: it.inst.instance, reason: "no attended start time clear of the printers' unavailable windows was found" });

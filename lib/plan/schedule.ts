@@ -1,6 +1,8 @@
 import type { AttendedCalendar } from "@/lib/calendar/attended-hours";
+import type { PartInstance } from "./fair-share";
 import type { PackedPlate } from "./pack";
 import { housingAllows } from "./rules";
+import { stretchNights } from "./stretch";
 import type { Printer, SpoolChange } from "./schema";
 
 /** changeover: the printer's changeover minutes are added; spoolChange: the operator changes the spool (a touch). */
@@ -10,6 +12,7 @@ export type ScheduleContext = {
   calendar: AttendedCalendar;
   nowMs: number;
   marginMm: number;
+  gapMm: number;
   /** May a plate run past closing, and how long (hours, null = no cap)? */
   unattended: { allowed: boolean; maxHours: number | null };
   /** Operator minutes a touch (here: a spool change) is worth against a later finish. */
@@ -234,7 +237,7 @@ const better = (a: Score, b: Score) =>
  * pairs between printers while that lowers total lateness, then the finish of the last plate.
  * Each printer always runs its plates in rank order, so the fair-share order holds per printer.
  */
-export function schedulePlates(plates: readonly PackedPlate[], ctx: ScheduleContext, maxPasses = 300): { timed: Timed[]; unscheduled: PackedPlate[] } {
+export function schedulePlates(plates: readonly PackedPlate[], ctx: ScheduleContext, maxPasses = 300, eligible: (x: PartInstance, p: Printer) => boolean = () => true): { timed: Timed[]; unscheduled: PackedPlate[] } {
   const lanes: Lane[] = ctx.printers.map((printer) => ({ printer, plates: [], timed: [], lateness: 0, finish: ctx.nowMs, changes: 0, ok: true }));
   const fits = new Map<PackedPlate, Lane[]>();
   const unscheduled: PackedPlate[] = [];
@@ -268,6 +271,11 @@ export function schedulePlates(plates: readonly PackedPlate[], ctx: ScheduleCont
     timeLane(ctx, best.lane);
   }
   improve(lanes, fits, ctx, maxPasses);
+  // Nights and weekends: turn the hours a printer stands idle after a plate that ended while closed
+  // into print time (stretch.ts). Only for a full schedule, and only when the workshop closes.
+  if (maxPasses > 0 && ctx.calendar.closingAfter(ctx.nowMs) !== null) {
+    stretchNights(lanes, { marginMm: ctx.marginMm, gapMm: ctx.gapMm, readyAfter: (t) => readyAfter(ctx, t), retime: (l) => timeLane(ctx, l as Lane), fits: (plate, p) => plateFits(plate, p, ctx.marginMm), eligible, budget: 4000 });
+  }
   return { timed: lanes.flatMap((l) => l.timed), unscheduled };
 }
 
