@@ -1,4 +1,5 @@
 import type { PartInstance } from "./fair-share";
+import { paddedArea, usableArea } from "./layout";
 import { packExact, type PackedPlate } from "./pack";
 import type { Printer } from "./schema";
 
@@ -28,8 +29,9 @@ export type StretchContext = {
  * and spool holds a longer copy, swapping it for a shorter copy of the idle plate (both plates laid
  * out again) makes the night plate run longer and the later one shorter: the idle hours become
  * print time and everything after moves earlier. A copy with a due time or a fair-share target
- * never moves to a later plate. Kept only when the printer's lateness does not grow and its last
- * plate ends earlier.
+ * never moves to a later plate. Kept only when lateness does not grow, no printer touched ends
+ * later, and the print minutes are done sooner on the whole (minutes × time of their plate's end);
+ * a later plate left empty is dropped, one plate fewer.
  */
 export function stretchNights(lanes: StretchLane[], ctx: StretchContext): void {
   let budget = ctx.budget;
@@ -52,7 +54,7 @@ export function stretchNights(lanes: StretchLane[], ctx: StretchContext): void {
         }
         if (later.length === 0) continue;
         // Shortest movable copies of the night plate against the longest of the later plates.
-        const give = night.items.map((it) => it.inst).filter((x) => x.target === null).sort((a, b) => a.part.minutes - b.part.minutes).slice(0, 6);
+        const give = night.items.map((it) => it.inst).filter((x) => x.target === null);
         const pairs: { q: PackedPlate; qLane: StretchLane; take: PartInstance; give: PartInstance | null; gain: number }[] = [];
         for (const { q, lane: qLane } of later) {
           for (const it of q.items) {
@@ -64,8 +66,16 @@ export function stretchNights(lanes: StretchLane[], ctx: StretchContext): void {
             }
           }
         }
-        pairs.sort((a, b) => b.gain - a.gain);
-        for (const pr of pairs.slice(0, 12)) {
+        // Only swaps whose areas can work: the copy taken needs no more room than the one given plus
+        // what the night plate has free (a check before the slower layout).
+        const g = ctx.gapMm;
+        const area = (x: PartInstance) => paddedArea(x, g);
+        const free = usableArea(lane.printer.bed, ctx.marginMm, g) - night.items.reduce((s, it) => s + area(it.inst), 0);
+        const viable = pairs.filter((pr) => area(pr.take) - (pr.give ? area(pr.give) : 0) <= free);
+        viable.sort((a, b) => b.gain - a.gain);
+        pairs.length = 0;
+        pairs.push(...viable);
+        for (const pr of pairs.slice(0, 24)) {
           if (budget-- <= 0) break;
           if (tryMove(lane, night, pr.qLane, pr.q, pr.take, pr.give, ctx)) {
             improved = true;
@@ -78,6 +88,14 @@ export function stretchNights(lanes: StretchLane[], ctx: StretchContext): void {
   }
 }
 
+/** Print minutes weighted by when they are done (minutes × hours from the first plate's start): lower is sooner. */
+function doneWhen(lane: StretchLane): number {
+  const t0 = lane.timed[0]?.start ?? 0;
+  let sum = 0;
+  for (const t of lane.timed) sum += t.plate.partMinutes * ((t.end - t0) / 3_600_000);
+  return sum;
+}
+
 function tryMove(lane: StretchLane, a: PackedPlate, qLane: StretchLane, b: PackedPlate, take: PartInstance, give: PartInstance | null, ctx: StretchContext): boolean {
   const aItems = a.items.map((it) => it.inst).filter((x) => x !== give).concat(take);
   const bItems = b.items.map((it) => it.inst).filter((x) => x !== take).concat(give ? [give] : []);
@@ -86,7 +104,7 @@ function tryMove(lane: StretchLane, a: PackedPlate, qLane: StretchLane, b: Packe
   const nb = bItems.length ? packExact(bItems, qLane.printer, ctx) : null;
   if (bItems.length && !nb) return false;
   const touched = qLane === lane ? [lane] : [lane, qLane];
-  const before = touched.map((l) => ({ l, finish: l.finish, lateness: l.lateness, plates: l.plates }));
+  const before = touched.map((l) => ({ l, finish: l.finish, lateness: l.lateness, plates: l.plates, work: doneWhen(l) }));
   const keep = (from: PackedPlate, to: PackedPlate | null) => (to ? { ...to, group: from.group, packedFor: from.packedFor, rank: from.rank } : null);
   const newA = keep(a, na)!;
   const newB = keep(b, nb);
@@ -97,7 +115,7 @@ function tryMove(lane: StretchLane, a: PackedPlate, qLane: StretchLane, b: Packe
     touched.every((l) => l.ok) &&
     late(touched) <= late(before) + 1e-6 &&
     Math.max(...touched.map((l) => l.finish)) <= Math.max(...before.map((x) => x.finish)) &&
-    touched.reduce((s, l) => s + l.finish, 0) < before.reduce((s, x) => s + x.finish, 0) - MIN;
+    touched.reduce((s, l) => s + doneWhen(l), 0) < before.reduce((s, x) => s + x.work, 0) - 1;
   if (ok) return true;
   for (const x of before) {
     x.l.plates = x.plates;
