@@ -2,6 +2,7 @@ import type { AttendedCalendar } from "@/lib/calendar/attended-hours";
 import type { PartInstance } from "./fair-share";
 import type { PackedPlate } from "./pack";
 import { housingAllows } from "./rules";
+import { mergePlates } from "./consolidate";
 import { stretchNights } from "./stretch";
 import type { Printer, SpoolChange } from "./schema";
 
@@ -46,6 +47,8 @@ export function plateMinutes(plate: PackedPlate, p: Printer, changeover: boolean
  */
 export function earliestStart(ctx: ScheduleContext, p: Printer, t: number, minutes: number): number | null {
   const windows = windowsOf(p);
+  // Longer than any open spell allows under the unattended policy: it can never start.
+  if (minutes > longestRun(ctx)) return null;
   let at = Math.max(t, ctx.nowMs);
   for (let guard = 0; guard < 10_000; guard++) {
     const open = nextOpening(ctx, at);
@@ -78,6 +81,18 @@ function dueOf(part: PackedPlate["items"][number]["inst"]["part"]): number | nul
   let d = dueCache.get(part);
   if (d === undefined) dueCache.set(part, (d = part.due === null ? null : Date.parse(part.due)));
   return d;
+}
+
+/** The longest plate the policy allows (minutes): a spell plus the allowance past closing, or no limit. */
+const runCache = new WeakMap<ScheduleContext, number>();
+function longestRun(ctx: ScheduleContext): number {
+  let r = runCache.get(ctx);
+  if (r === undefined) {
+    r = ctx.unattended.allowed && ctx.unattended.maxHours === null ? Number.POSITIVE_INFINITY : ctx.calendar.longestSpellMinutes() + (ctx.unattended.allowed ? ctx.unattended.maxHours! * 60 : 0);
+    if (ctx.calendar.closingAfter(ctx.nowMs) === null) r = Number.POSITIVE_INFINITY;
+    runCache.set(ctx, r);
+  }
+  return r;
 }
 
 /** The latest end the unattended policy allows for a plate started at `start`. */
@@ -271,6 +286,9 @@ export function schedulePlates(plates: readonly PackedPlate[], ctx: ScheduleCont
     timeLane(ctx, best.lane);
   }
   improve(lanes, fits, ctx, maxPasses);
+  if (maxPasses > 0) {
+    mergePlates(lanes, { marginMm: ctx.marginMm, gapMm: ctx.gapMm, nowMs: ctx.nowMs, touchMinutes: ctx.touchMinutes, retime: (l) => timeLane(ctx, l as Lane), eligible, budget: 1500 });
+  }
   // Nights and weekends: turn the hours a printer stands idle after a plate that ended while closed
   // into print time (stretch.ts). Only for a full schedule, and only when the workshop closes.
   if (maxPasses > 0 && ctx.calendar.closingAfter(ctx.nowMs) !== null) {

@@ -6,6 +6,8 @@ import { calendarFinishBound, planLowerBounds, platesForFinishBound } from "@/li
 import { fairnessInstance, generateInstance, lastCopyMinutes } from "@/lib/plan/generate-instance";
 import { planWorkshop } from "@/lib/plan/plan";
 import { validatePlan } from "@/lib/plan/validate";
+import { planScore } from "@/lib/plan/objective";
+import { objectiveLowerBound, smallInstance } from "../../tests/support/objective-bound";
 
 const SEEDS = [1, 2, 3];
 /** Each plan is timed this many times (it is deterministic); the median is printed. */
@@ -74,6 +76,15 @@ for (const seed of SEEDS) {
   const heavy = last.get("heavy")!;
   const light = Math.max(...[...last].filter(([o]) => o !== "heavy").map(([, t]) => t));
   console.log(`seed ${seed}: light members' last copy ${h(light)}, heavy member's ${h(heavy)} → ratio ${fmt(light / heavy, 3)} (goal ≤ 0.25)`);
+}
+console.log("\n== small instances (3 printers, Mon-Fri hours, a loaded spool, no unattended runs): cost = touches × 30 min + finish");
+console.log("   against a HiGHS lower bound on that cost (tests/support/objective-bound.ts); goal ≤ 1.10");
+for (const seed of [401, 402, 403, 404, 405, 406]) {
+  const inst = smallInstance(seed);
+  const out = planWorkshop(inst);
+  const ours = planScore(inst, out.plates, 0);
+  const lb = await objectiveLowerBound(inst, ours.finish);
+  console.log(`seed ${seed}: ours ${fmt(ours.cost, 0)} (touches ${ours.touches}, finish ${h(ours.finish)}) vs bound ${fmt(lb, 0)} → ratio ${fmt(ours.cost / lb, 3)}`);
 }
 console.log("\nsummary: the worst seed of each figure; goals always-open X ≤ 1.15, Y ≤ 1.15; attended X ≤ 1.30, Y ≤ 1.35; Z ≤ 0.8");
 for (const hours of ["all", "workdays"] as const) {
