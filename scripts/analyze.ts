@@ -1,5 +1,6 @@
 // CLI: analyse mesh files. npm run -s analyze -- FILE... [--up x,y,z] [--overhang-deg 45] [--units mm|in] [--json]
 import { readFileSync } from "node:fs";
+import { nodeInflateRaw } from "@/lib/mesh-node/inflate";
 import { analysisToJson, analyzeBytes, isMeshReadError, type AnalysisJson, type ErrorJson, type StlUnits, type Vec3 } from "@/lib/mesh";
 
 function usage(msg?: string): never {
@@ -40,7 +41,7 @@ for (const file of files) {
   let row: AnalysisJson | ErrorJson;
   try {
     const bytes = new Uint8Array(readFileSync(file));
-    const r = analyzeBytes(bytes, { filename: file, units, up, overhangDeg });
+    const r = analyzeBytes(bytes, { filename: file, units, up, overhangDeg, inflateRaw: nodeInflateRaw });
     row = analysisToJson(file, r.format, r.analysis);
   } catch (e) {
     failed = true;

@@ -17,6 +17,7 @@ export type MeshReadErrorCode =
   | "BAD_MODEL"
   | "BAD_INDEX"
   | "BAD_UNIT"
+  | "MISSING_PART"
   | "CANCELLED";
 
 export class MeshReadError extends Error {

@@ -7,6 +7,7 @@ import { db } from "@/db";
 import { meshBlobs, partFiles, parts } from "@/db/schema";
 import { env } from "@/lib/env";
 import { analysisToJson, analyzeBytes, isMeshReadError, type AnalysisJson } from "@/lib/mesh";
+import { nodeInflateRaw } from "@/lib/mesh-node/inflate";
 import type { UploadQuery } from "@/lib/validation/assemblies";
 import { forgetUnusedBlobs, withBlobsHeld } from "./blobs";
 import { AppError } from "./errors";
@@ -85,7 +86,7 @@ export async function receiveUpload(
     const bytes = new Uint8Array(await readFile(temp));
     let analysed;
     try {
-      analysed = analyzeBytes(bytes, { filename: q.name, units: q.units });
+      analysed = analyzeBytes(bytes, { filename: q.name, units: q.units, inflateRaw: nodeInflateRaw });
     } catch (e) {
       if (isMeshReadError(e)) throw new AppError("invalid", `${q.name} could not be read: ${e.message}.`, { file: [e.message] });
       throw e;
