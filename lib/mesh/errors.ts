@@ -18,6 +18,9 @@ export type MeshReadErrorCode =
   | "BAD_INDEX"
   | "BAD_UNIT"
   | "MISSING_PART"
+  | "BAD_STEP"
+  | "NO_SOLIDS"
+  | "NEEDS_STEP_READER"
   | "CANCELLED";
 
 export class MeshReadError extends Error {
