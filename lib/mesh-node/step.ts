@@ -1,10 +1,13 @@
 import occtimportjs from "occt-import-js";
-import { analyzeBytes, analyzeSoup, isStep, readStepWith, type AnalysisOptions, type MeshAnalysis, type MeshFormat, type OcctModule, type ReadOptions, type TriangleSoup } from "@/lib/mesh";
+import { checkStepText, stepResultToRead } from "@/lib/mesh/step-read";
+import { analyzeBytes, analyzeSoup, isStep, type AnalysisOptions, type MeshAnalysis, type MeshFormat, type OcctModule, type ReadOptions, type TriangleSoup } from "@/lib/mesh";
 import { nodeInflateRaw } from "./inflate";
+import { tessellateStep } from "./step-thread";
 
 /**
  * The STEP tessellator (occt-import-js, OpenCascade in WebAssembly) for Node: the server and the
- * CLI. Loaded once, on the first STEP file (~7 MB of WebAssembly, about a second to compile).
+ * CLI run it in a worker thread with a time limit (step-thread.ts); `loadOcct` loads it in this
+ * thread (tests, and hosts that trust their files). Loaded once (~7 MB of WebAssembly, about a second).
  */
 let loading: Promise<OcctModule> | undefined;
 
@@ -26,17 +29,10 @@ export interface FileAnalysis {
   parts?: { objectId: string; name: string | undefined; firstTriangle: number; triangleCount: number }[];
 }
 
-/** Analyse any file the engine reads: STL and 3MF with Node's inflater, STEP through the tessellator. */
-export async function analyzeFile(bytes: Uint8Array, opts: AnalysisOptions & ReadOptions = {}): Promise<FileAnalysis> {
+/** Analyse any file the engine reads: STL and 3MF with Node's inflater, STEP through the tessellator's thread. */
+export async function analyzeFile(bytes: Uint8Array, opts: AnalysisOptions & ReadOptions & { stepTimeLimitMs?: number } = {}): Promise<FileAnalysis> {
   if (!isStep(bytes)) return analyzeBytes(bytes, { ...opts, inflateRaw: opts.inflateRaw ?? nodeInflateRaw });
-  const occt = await loadOcct();
-  let r;
-  try {
-    r = readStepWith(occt, bytes, opts);
-  } catch (e) {
-    // A trap inside the module (an abort) can leave it unusable: load a fresh one next time.
-    if (e instanceof Error && e.name === "MeshReadError" && /could not be read \(/.test(e.message)) loading = undefined;
-    throw e;
-  }
+  checkStepText(bytes);
+  const r = stepResultToRead(await tessellateStep(bytes, opts.stepTimeLimitMs), opts);
   return { format: "step", analysis: analyzeSoup(r.soup, opts), warnings: r.warnings, soup: r.soup, parts: r.parts };
 }

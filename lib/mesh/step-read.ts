@@ -45,16 +45,56 @@ export function isStep(b: Uint8Array): boolean {
   return true;
 }
 
+/**
+ * Checks of the exchange structure made before the tessellator sees the file (ISO 10303-21: each
+ * entity instance name `#n` is defined once in the DATA section). A name defined twice can send the
+ * tessellator into a loop, so it is refused here with its name. Strings ('…', '' inside) and
+ * comments (/* … *\/) are skipped.
+ */
+export function checkStepText(b: Uint8Array): void {
+  if (!isStep(b)) throw new MeshReadError("BAD_STEP", "not a STEP file: it does not begin with 'ISO-10303-21;' (ISO 10303-21)");
+  const seen = new Set<number>();
+  let atStart = true; // at the start of a statement (after ';')
+  for (let i = 0; i < b.length; i++) {
+    const c = b[i]!;
+    if (c === 39) { // a string: '' is a quote inside it
+      for (i++; i < b.length; i++) if (b[i] === 39) { if (b[i + 1] === 39) i++; else break; }
+      atStart = false;
+    } else if (c === 47 && b[i + 1] === 42) { // a comment
+      const e = b.indexOf(42, i + 2);
+      let j = e;
+      while (j >= 0 && b[j + 1] !== 47) j = b.indexOf(42, j + 1);
+      i = j < 0 ? b.length : j + 1;
+    } else if (c === 59) atStart = true;
+    else if (c === 35 && atStart) { // '#' opening a statement: an instance definition
+      let n = 0, j = i + 1;
+      while (j < b.length && b[j]! >= 48 && b[j]! <= 57) n = n * 10 + (b[j++]! - 48);
+      while (b[j] === 32 || b[j] === 9 || b[j] === 10 || b[j] === 13) j++;
+      if (b[j] === 61 && j > i + 1) {
+        if (seen.has(n)) throw new MeshReadError("BAD_STEP", `the STEP file defines instance #${n} twice (ISO 10303-21 requires each instance name once)`);
+        seen.add(n);
+      }
+      atStart = false;
+      i = j - 1;
+    } else if (c !== 32 && c !== 9 && c !== 10 && c !== 13) atStart = false;
+  }
+}
+
 /** Tessellate a STEP file with a loaded module into a millimetre soup, one part per body. */
 export function readStepWith(occt: OcctModule, bytes: Uint8Array, opts: { maxTriangles?: number } = {}): ReadResult {
-  if (!isStep(bytes)) throw new MeshReadError("BAD_STEP", "not a STEP file: it does not begin with 'ISO-10303-21;' (ISO 10303-21)");
-  const maxTriangles = opts.maxTriangles ?? 20_000_000;
+  checkStepText(bytes);
   let r: OcctResult;
   try {
     r = occt.ReadStepFile(bytes, STEP_PARAMS);
   } catch (e) {
     throw new MeshReadError("BAD_STEP", `the STEP file could not be read (${e instanceof Error ? e.message.slice(0, 120) : "the tessellator failed"})`);
   }
+  return stepResultToRead(r, opts);
+}
+
+/** The tessellator's answer as a millimetre soup, one part per body (solids, then shells and loose faces). */
+export function stepResultToRead(r: OcctResult, opts: { maxTriangles?: number } = {}): ReadResult {
+  const maxTriangles = opts.maxTriangles ?? 20_000_000;
   if (!r || !r.success) throw new MeshReadError("BAD_STEP", "the STEP file could not be read: its DATA section is malformed or uses entities the reader does not know");
   const meshes = (r.meshes ?? []).filter((m) => m.index.array.length >= 3);
   if (meshes.length === 0) throw new MeshReadError("NO_SOLIDS", "the STEP file holds no solid or surface to print (only curves, points or an empty model)");

@@ -74,4 +74,21 @@ describe("STEP import (ISO 10303-21): the WebAssembly tessellator loads in Node"
       expect(isMeshReadError(e) && e.code).toBe("NEEDS_STEP_READER");
     }
   });
+
+  it("refuses an instance name defined twice before tessellating (ISO 10303-21; it can send the tessellator into a loop)", async () => {
+    const s = stepFile("mm", (w) => [boxSolid(w, 1, 1, 1)]).replace("#20=", "#12=");
+    expect(await code(() => analyzeFile(enc(s)))).toBe("BAD_STEP");
+    await analyzeFile(enc(s)).catch((e: Error) => expect(e.message).toMatch(/defines instance #12 twice/));
+    // '#12=' inside a string or a comment is not a definition.
+    const quoted = stepFile("mm", (w) => [boxSolid(w, 1, 1, 1)]).replace("PRODUCT('part','part','',", "PRODUCT('part #12=x','part','', /* #12= */");
+    expect((await analyzeFile(enc(quoted))).format).toBe("step");
+  });
+
+  it("stops a tessellation that runs past its time limit, then reads the next file in a fresh thread", async () => {
+    const s = enc(stepFile("mm", (w) => [cylinderSolid(w, 5, 10)]));
+    const e = await analyzeFile(s, { stepTimeLimitMs: 1 }).catch((x: unknown) => x);
+    expect(isMeshReadError(e) && e.code).toBe("BAD_STEP");
+    expect((e as Error).message).toMatch(/took longer than/);
+    expect((await analyzeFile(s)).analysis.triangles).toBeGreaterThan(0);
+  });
 });
