@@ -1,6 +1,7 @@
-// CLI: analyse mesh files. npm run -s analyze -- FILE... [--up x,y,z] [--overhang-deg 45] [--units mm|in] [--json]
+// CLI: analyse mesh files (binary/ASCII STL, 3MF, STEP). npm run -s analyze -- FILE... [--up x,y,z] [--overhang-deg 45] [--units mm|in] [--json]
 import { readFileSync } from "node:fs";
-import { analysisToJson, analyzeBytes, isMeshReadError, type AnalysisJson, type ErrorJson, type StlUnits, type Vec3 } from "@/lib/mesh";
+import { analyzeFile } from "@/lib/mesh-node/step";
+import { analysisToJson, isMeshReadError, type AnalysisJson, type ErrorJson, type StlUnits, type Vec3 } from "@/lib/mesh";
 
 function usage(msg?: string): never {
   if (msg) process.stderr.write(`analyze: ${msg}\n`);
@@ -40,7 +41,7 @@ for (const file of files) {
   let row: AnalysisJson | ErrorJson;
   try {
     const bytes = new Uint8Array(readFileSync(file));
-    const r = analyzeBytes(bytes, { filename: file, units, up, overhangDeg });
+    const r = await analyzeFile(bytes, { filename: file, units, up, overhangDeg });
     row = analysisToJson(file, r.format, r.analysis);
   } catch (e) {
     failed = true;

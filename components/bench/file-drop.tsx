@@ -1,6 +1,7 @@
 "use client";
-// Drop or choose STL/3MF files: each is read at once in the mesh worker (numbers before anything is
-// sent), then sent with its own progress bar. STL has no units, so each row asks mm or inches.
+// Drop or choose STL/3MF/STEP files: each is read at once in the mesh worker (numbers before anything
+// is sent; a STEP file is tessellated there first), then sent with its own progress bar. STL has no
+// units, so each row asks mm or inches; 3MF and STEP state their own.
 import { useQueryClient } from "@tanstack/react-query";
 import { useRef, useState, type DragEvent } from "react";
 import { useMeshWorker } from "@/components/mesh/use-mesh-worker";
@@ -21,6 +22,8 @@ interface Row {
   phase: "reading" | "ready" | "uploading" | "analysing" | "done" | "failed";
   preview?: AnalysisJson;
   progress: number;
+  /** While reading: "tessellate" when a STEP file is being turned into triangles. */
+  reading?: string;
   error?: string;
   partId?: number;
 }
@@ -29,6 +32,7 @@ interface Row {
 const INCH_HINT_MM = 8;
 
 const isStl = (f: File) => /\.stl$/i.test(f.name);
+const MESH_NAME = /\.(stl|3mf|step|stp)$/i;
 
 export function FileDrop({ target }: { target: Target }) {
   const { analyze } = useMeshWorker();
@@ -44,11 +48,11 @@ export function FileDrop({ target }: { target: Target }) {
     const fresh: Row[] = list.map((file) => ({ key: nextKey.current++, file, units: "mm", phase: "reading", progress: 0 }));
     setRows((rs) => (target.kind === "version" ? fresh : [...rs, ...fresh]));
     for (const r of fresh) {
-      if (!/\.(stl|3mf)$/i.test(r.file.name)) {
-        patch(r.key, { phase: "failed", error: "Only .stl and .3mf files can be uploaded." });
+      if (!MESH_NAME.test(r.file.name)) {
+        patch(r.key, { phase: "failed", error: "Only .stl, .3mf and .step (.stp) files can be uploaded." });
         continue;
       }
-      analyze(r.file, { units: "mm" }).promise.then(
+      analyze(r.file, { units: "mm" }, (phase) => patch(r.key, { reading: phase })).promise.then(
         (res) => patch(r.key, { phase: "ready", preview: res.json }),
         (e: Error) => patch(r.key, { phase: "failed", error: `${r.file.name} could not be read: ${e.message}.` }),
       );
@@ -59,7 +63,7 @@ export function FileDrop({ target }: { target: Target }) {
     try {
       let partId = target.kind === "version" ? target.partId : r.partId;
       if (partId === undefined && target.kind === "new-parts") {
-        const name = r.file.name.replace(/\.(stl|3mf)$/i, "").replace(/[_-]+/g, " ").trim().slice(0, 120) || "Part";
+        const name = r.file.name.replace(MESH_NAME, "").replace(/[_-]+/g, " ").trim().slice(0, 120) || "Part";
         partId = (await sendJson<{ id: number }>(`/api/assemblies/${target.assemblyId}/parts`, "POST", { name, quantity: 1, material: "PLA" })).id;
         patch(r.key, { partId });
       }
@@ -91,11 +95,11 @@ export function FileDrop({ target }: { target: Target }) {
         onDrop={onDrop}
         className={`flex flex-col items-center gap-2 rounded-lg border-2 border-dashed px-4 py-6 text-center text-sm ${over ? "border-accent bg-accent-wash" : "border-rule bg-sheet/60"}`}
       >
-        <p>{target.kind === "version" ? "Drop a new STL or 3MF here to replace the mesh (the old one stays in the history)" : "Drop STL or 3MF files here: each becomes a part"}</p>
+        <p>{target.kind === "version" ? "Drop a new STL, 3MF or STEP file here to replace the mesh (the old one stays in the history)" : "Drop STL, 3MF or STEP files here: each becomes a part"}</p>
         <Button type="button" variant="secondary" onClick={() => input.current?.click()}>
           Choose files
         </Button>
-        <input ref={input} type="file" aria-label="Mesh files" accept=".stl,.3mf" multiple={target.kind !== "version"} className="sr-only" onChange={(e) => e.target.files && add(e.target.files)} />
+        <input ref={input} type="file" aria-label="Mesh files" accept=".stl,.3mf,.step,.stp" multiple={target.kind !== "version"} className="sr-only" onChange={(e) => e.target.files && add(e.target.files)} />
       </div>
       {rows.length > 0 ? (
         <ul className="flex flex-col gap-2" aria-label="Files to upload">
@@ -107,7 +111,7 @@ export function FileDrop({ target }: { target: Target }) {
                 <div className="flex flex-wrap items-center justify-between gap-2">
                   <span className="font-medium">{r.file.name}</span>
                   <span className="num text-xs text-ink-soft">
-                    {s ? `${s.map((x) => x.toFixed(1)).join(" × ")} mm · ${r.preview!.triangles} triangles` : r.phase === "reading" ? "Reading…" : ""}
+                    {s ? `${s.map((x) => x.toFixed(1)).join(" × ")} mm · ${r.preview!.triangles} triangles` : r.phase === "reading" ? (r.reading === "tessellate" ? "Tessellating the STEP file…" : "Reading…") : ""}
                   </span>
                 </div>
                 {isStl(r.file) && (r.phase === "ready" || r.phase === "failed") && r.preview ? (

@@ -153,7 +153,14 @@ export function PartView({ id, initial }: { id: number; initial: PartDetailWire 
               <ol className="flex flex-col gap-1 text-sm">
                 {d.files.map((f) => (
                   <li key={f.id}>
-                    Version {f.versionNo}{f.id === d.current?.id ? " (current)" : ""} · <a className="underline" href={`/api/files/${f.id}`}>{f.originalName}</a> · {f.units === "in" ? "inches" : "mm"} · {f.uploadedBy} · {new Date(f.uploadedAt).toLocaleString("en-GB")}
+                    Version {f.versionNo}{f.id === d.current?.id ? " (current)" : ""} · {f.format === "step" ? (
+                      <>
+                        <a className="underline" href={`/api/files/${f.id}?source=1`}>{f.originalName}</a> (mesh: <a className="underline" href={`/api/files/${f.id}`}>3MF</a>)
+                      </>
+                    ) : (
+                      <a className="underline" href={`/api/files/${f.id}`}>{f.originalName}</a>
+                    )}{" "}
+                    · {f.format === "step" ? "units from the file" : f.units === "in" ? "inches" : "mm"} · {f.uploadedBy} · {new Date(f.uploadedAt).toLocaleString("en-GB")}
                   </li>
                 ))}
               </ol>

@@ -68,13 +68,16 @@ export const meshBlobs = mysqlTable("mesh_blobs", {
   createdAt: createdAt(),
 });
 
-/** One uploaded version of a part's mesh, with the server's analysis of it (units matter for STL). */
+/** One uploaded version of a part's mesh, with the server's analysis of it (units matter for STL). A STEP
+ * upload is kept as `source_sha256` beside the 3MF mesh made from it (`sha256`, which every reader uses). */
 export const partFiles = mysqlTable(
   "part_files",
   {
     id: int("id").autoincrement().primaryKey(),
     partId: int("part_id").notNull().references(() => parts.id, { onDelete: "cascade" }),
     sha256: char("sha256", { length: 64 }).notNull().references(() => meshBlobs.sha256),
+    /** The file as uploaded when `sha256` is a mesh made from it (a STEP file tessellated to 3MF). */
+    sourceSha256: char("source_sha256", { length: 64 }).references(() => meshBlobs.sha256),
     versionNo: int("version_no").notNull(),
     originalName: varchar("original_name", { length: 255 }).notNull(),
     units: mysqlEnum("units", ["mm", "in"]).notNull(),

@@ -17,6 +17,10 @@ export type MeshReadErrorCode =
   | "BAD_MODEL"
   | "BAD_INDEX"
   | "BAD_UNIT"
+  | "MISSING_PART"
+  | "BAD_STEP"
+  | "NO_SOLIDS"
+  | "NEEDS_STEP_READER"
   | "CANCELLED";
 
 export class MeshReadError extends Error {

@@ -20,4 +20,5 @@ export { writeStl } from "./stl-write";
 export { write3mf, type ThreeMfObject } from "./threemf-write";
 export { applyAffine, composeAffine, IDENTITY, type Affine } from "./affine";
 export { UNIT_MM, type ThreeMfPart } from "./threemf-read";
+export { isStep, readStepWith, STEP_ANGULAR_DEFLECTION_RAD, STEP_LINEAR_DEFLECTION_MM, type OcctModule } from "./step-read";
 export { analysisToJson, type AnalysisJson, type ErrorJson } from "./json";

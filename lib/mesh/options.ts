@@ -1,3 +1,4 @@
+import { overhangLimit } from "./overhang";
 import type { Vec3 } from "./types";
 
 /** Options shared by every analysis entry point. */
@@ -6,7 +7,8 @@ export interface AnalysisOptions {
   up?: Vec3;
   /**
    * Self-supporting angle θ from vertical, degrees. A facet is an overhang when the angle between
-   * its outward normal and straight down is below 90° − θ. Default 45° (common practice).
+   * its outward normal and straight down is below 90° − θ. Default 45° (common practice). A facet
+   * at the limit is self-supporting, within a tolerance of 0.01° (see overhang.ts).
    */
   overhangDeg?: number;
   /** Facets whose highest vertex is within this distance (mm) of the lowest point rest on the bed. */
@@ -19,6 +21,7 @@ export interface AnalysisOptions {
 
 export interface ResolvedOptions {
   up: Vec3;
+  /** sin(θ + τ): the overhang limit of overhang.ts, tolerance included. */
   sinTheta: number;
   bedTolerance: number;
   mask: boolean;
@@ -38,8 +41,8 @@ export function resolveOptions(o: AnalysisOptions = {}): ResolvedOptions {
   if (!Number.isFinite(tol) || tol < 0) throw new RangeError("bed tolerance must be a non-negative number");
   return {
     up: [u[0] / len, u[1] / len, u[2] / len],
-    // n·down > cos(90° − θ)·|n| = sin θ·|n|
-    sinTheta: Math.sin((deg * Math.PI) / 180),
+    // n·down > cos(90° − θ)·|n| = sin θ·|n|, θ widened by the tolerance at the limit
+    sinTheta: overhangLimit(deg),
     bedTolerance: tol,
     mask: o.mask ?? false,
     weldTolerance: o.weldTolerance,

@@ -1,10 +1,11 @@
 import { MeshReadError } from "./errors";
 import { readStlAscii, readStlBinary, sniffStl } from "./stl-read";
+import { isStep } from "./step-read";
 import { readThreeMf, type ThreeMfPart } from "./threemf-read";
 import type { TriangleSoup } from "./types";
-import { isZip } from "./zip";
+import { isZip, type RawInflate } from "./zip";
 
-export type MeshFormat = "stl-binary" | "stl-ascii" | "3mf";
+export type MeshFormat = "stl-binary" | "stl-ascii" | "3mf" | "step";
 export type StlUnits = "mm" | "in";
 
 export interface ReadOptions {
@@ -16,6 +17,8 @@ export interface ReadOptions {
   maxUncompressedBytes?: number;
   /** Cap on triangles produced (default 20 million). */
   maxTriangles?: number;
+  /** A faster raw-deflate inflater for 3MF packages (see zip.ts); fflate's otherwise. */
+  inflateRaw?: RawInflate;
 }
 
 export interface ReadResult {
@@ -40,9 +43,11 @@ export function readMesh(bytes: Uint8Array, opts: ReadOptions = {}): ReadResult 
   const maxTriangles = opts.maxTriangles ?? DEFAULT_MAX_TRIANGLES;
   const warnings: string[] = [];
   if (bytes.length === 0) throw new MeshReadError("EMPTY", "the file is empty (0 bytes)");
+  if (isStep(bytes)) throw new MeshReadError("NEEDS_STEP_READER", "a STEP file needs the STEP tessellator: read it with readStepWith (lib/mesh/step-read.ts)");
   if (isZip(bytes)) {
-    const r = readThreeMf(bytes, { maxUncompressedBytes: opts.maxUncompressedBytes, maxTriangles });
+    const r = readThreeMf(bytes, { maxUncompressedBytes: opts.maxUncompressedBytes, maxTriangles, inflateRaw: opts.inflateRaw });
     if (opts.units && opts.units !== "mm") warnings.push("units option ignored: a 3MF file states its own unit");
+    warnings.push(...r.warnings);
     return { format: "3mf", soup: { positions: r.positions }, parts: r.parts, warnings };
   }
   const kind = sniffStl(bytes);

@@ -1,5 +1,6 @@
 import { MeshReadError } from "./errors";
 import type { ResolvedOptions } from "./options";
+import { isOverhang } from "./overhang";
 import type { Vec3 } from "./types";
 
 /**
@@ -101,7 +102,7 @@ export function passRange(s: PassState, f: Float32Array, base: number, stride: n
     if (hi > hMax) hMax = hi;
     const down = -(nx * ux + ny * uy + nz * uz);
     if (down > 0) {
-      const over = down > sinT * n;
+      const over = isOverhang(down, n, sinT);
       if (over) { over2 += n; if (mask) mask[t] = 1; }
       // A facet on the final bed is within tol of every running minimum seen so far.
       if (hi <= hMin + tol) {

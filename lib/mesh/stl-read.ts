@@ -14,17 +14,44 @@ function lower(c: number): number {
   return c >= 65 && c <= 90 ? c + 32 : c;
 }
 
-/** Does the text start with `solid`, and is the first keyword after its name line facet/endsolid? */
+const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+/** Bytes allowed in a solid's name line: printable ASCII, tab and UTF-8 sequences (no NUL, no controls). */
+const isTextByte = (c: number) => c === 9 || (c >= 32 && c !== 127);
+
+/**
+ * The ASCII grammar, checked on the opening of the file before `solid` is trusted: `solid`, a name
+ * line of text that ends with a line break, then `endsolid` or one whole first facet
+ * (`facet normal n n n outer loop vertex x y z ×3 endloop endfacet`, numbers as decimals).
+ * A binary header may begin with `solid`; its records do not spell out a facet.
+ */
 function looksAscii(b: Uint8Array): boolean {
   let i = 0;
   while (i < b.length && WS(b[i]!)) i++;
-  const word = "solid";
-  for (let j = 0; j < 5; j++) if (lower(b[i + j] ?? 0) !== word.charCodeAt(j)) return false;
+  for (let j = 0; j < 5; j++) if (lower(b[i + j] ?? 0) !== "solid".charCodeAt(j)) return false;
   i += 5;
-  while (i < b.length && b[i] !== 10 && b[i] !== 13) i++; // the solid's name runs to the end of line
-  while (i < b.length && WS(b[i]!)) i++;
-  const next = (w: string) => [...w].every((ch, j) => lower(b[i + j] ?? 0) === ch.charCodeAt(0));
-  return next("facet") || next("endsolid") || i >= b.length;
+  while (i < b.length && b[i] !== 10 && b[i] !== 13) {
+    if (!isTextByte(b[i]!)) return false;
+    i++;
+  }
+  if (i >= b.length) return true; // just "solid name": text, the reader reports it has no facets
+  const token = (): string => {
+    while (i < b.length && WS(b[i]!)) i++;
+    let t = "";
+    while (i < b.length && !WS(b[i]!) && t.length < 40) t += String.fromCharCode(lower(b[i++]!));
+    return t;
+  };
+  const first = token();
+  if (first === "endsolid") return true;
+  const words = ["facet", "normal", "#", "#", "#", "outer", "loop"];
+  for (let v = 0; v < 3; v++) words.push("vertex", "#", "#", "#");
+  words.push("endloop", "endfacet");
+  let k = 0;
+  for (let t = first; k < words.length; t = token(), k++) {
+    const w = words[k]!;
+    if (w === "#" ? !NUMBER.test(t) && !/^[+-]?(nan|inf|infinity)$/.test(t) : t !== w) return false;
+  }
+  return true;
 }
 
 function startsWithSolid(b: Uint8Array): boolean {
@@ -42,7 +69,11 @@ function looksBinary(b: Uint8Array): boolean {
 /** Trailing bytes after 84 + 50·N that are still read as binary (some writers pad a little). */
 const MAX_TRAILING = 1024;
 
-/** Decide binary or ASCII: exact binary size first, then content (see REFERENCES: robust detection). */
+/**
+ * Decide binary or ASCII: the exact binary size 84 + 50·N first; then the ASCII grammar of the
+ * opening (above); then the binary size with up to MAX_TRAILING bytes after the last record; then
+ * errors that say which rule failed (see REFERENCES: robust detection).
+ */
 export function sniffStl(b: Uint8Array): StlKind {
   if (b.length === 0) throw new MeshReadError("EMPTY", "the file is empty (0 bytes)");
   if (b.length < 84) {
@@ -108,7 +139,7 @@ export function readStlAscii(b: Uint8Array): Float32Array {
     if (low.includes("nan") || low.includes("inf")) {
       throw new MeshReadError("NON_FINITE", `ASCII STL, line ${lineOf(text, tokStart)}: coordinate '${t.slice(0, 40)}' is not a finite number`);
     }
-    if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) fail(`expected a number, found '${t.slice(0, 40)}'`);
+    if (!NUMBER.test(t)) fail(`expected a number, found '${t.slice(0, 40)}'`);
     const v = Number(t);
     if (!Number.isFinite(v) || !Number.isFinite(Math.fround(v))) {
       throw new MeshReadError("NON_FINITE", `ASCII STL, line ${lineOf(text, tokStart)}: coordinate '${t.slice(0, 40)}' overflows a 32-bit float`);

@@ -1,7 +1,8 @@
 import { analysisSteps, chunkSegments, soupSegments, type MeshAnalysis } from "./analysis";
 import { isMeshReadError, MeshReadError } from "./errors";
 import { analysisToJson } from "./json";
-import { readMesh } from "./read";
+import { readMesh, type ReadResult } from "./read";
+import { isStep, readStepWith, type OcctModule } from "./step-read";
 import type { AnalyzeOptions, AnalyzeResult, FromWorker, ProgressPhase } from "./worker-protocol";
 
 /**
@@ -13,6 +14,8 @@ export interface JobHooks {
   cancelled(): boolean;
   /** Let pending messages in; defaults to a zero timeout. */
   pause?: () => Promise<void>;
+  /** Load the STEP tessellator (the host knows where its WebAssembly is); without it STEP is refused. */
+  loadStep?: () => Promise<OcctModule>;
 }
 
 const CHUNK_TRIANGLES = 1 << 17;
@@ -27,7 +30,17 @@ export async function runAnalyzeJob(bytes: Uint8Array, options: AnalyzeOptions, 
   };
   hooks.progress("read", 0);
   await check();
-  const read = readMesh(bytes, { filename: options.filename, units: options.units });
+  let read: ReadResult;
+  if (isStep(bytes)) {
+    if (!hooks.loadStep) throw new MeshReadError("NEEDS_STEP_READER", "STEP files cannot be read here");
+    hooks.progress("tessellate", 0);
+    const occt = await hooks.loadStep();
+    await check();
+    read = readStepWith(occt, bytes);
+    hooks.progress("tessellate", 1);
+  } else {
+    read = readMesh(bytes, { filename: options.filename, units: options.units });
+  }
   hooks.progress("read", 1);
   await check();
   const p = read.soup.positions;

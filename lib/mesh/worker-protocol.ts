@@ -16,7 +16,8 @@ export type ToWorker =
   | { type: "analyze"; id: number; buffer: ArrayBuffer; options: AnalyzeOptions }
   | { type: "cancel"; id: number };
 
-export type ProgressPhase = "read" | Phase;
+/** "tessellate": a STEP file is being turned into triangles (one step: the tessellator reports nothing in between). */
+export type ProgressPhase = "read" | "tessellate" | Phase;
 
 /** Arrays for the viewer: the soup, a per-facet overhang mask and the footprint outline. */
 export interface ViewerArrays {

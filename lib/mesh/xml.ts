@@ -12,10 +12,16 @@ export interface XmlTag {
   count: number;
   ranges: Int32Array;
   bytes: Uint8Array;
+  /** Byte index just past the tag's closing '>'. */
+  end: number;
 }
 
 export interface XmlHandler {
-  open(tag: XmlTag, selfClosing: boolean): void;
+  /**
+   * An element starts. A handler that reads the element's content itself (a fast path) returns the
+   * index where scanning resumes; the scanner still checks the closing tag that follows.
+   */
+  open(tag: XmlTag, selfClosing: boolean): number | void;
   close(name: string): void;
 }
 
@@ -80,7 +86,7 @@ class NameCache {
 export function scanXml(b: Uint8Array, h: XmlHandler): void {
   const names = new NameCache();
   const stack: string[] = [];
-  const tag: XmlTag = { name: "", count: 0, ranges: new Int32Array(MAX_ATTRS * 4), bytes: b };
+  const tag: XmlTag = { name: "", count: 0, ranges: new Int32Array(MAX_ATTRS * 4), bytes: b, end: 0 };
   const n = b.length;
   let i = 0;
   let sawRoot = false;
@@ -162,9 +168,10 @@ export function scanXml(b: Uint8Array, h: XmlHandler): void {
       if (stack.length >= MAX_DEPTH) bad(`elements nested deeper than ${MAX_DEPTH}`);
       stack.push(tag.name);
     }
-    h.open(tag, selfClosing);
+    tag.end = e;
+    const resume = h.open(tag, selfClosing);
     if (selfClosing) h.close(tag.name);
-    i = e;
+    i = typeof resume === "number" && resume > e ? resume : e;
   }
   if (stack.length > 0) bad(`unexpected end of XML inside <${stack[stack.length - 1]}>`);
   if (!sawRoot) bad("no XML element found");
@@ -209,17 +216,15 @@ export function attr(t: XmlTag, name: string): string | undefined {
   return k < 0 ? undefined : attrValue(t, k);
 }
 
-const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
+export const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
 
 /**
- * Parse a decimal number from the attribute's bytes. Fast path: at most 15 significant digits
- * and a power of ten up to 22, where m·10^e (or m/10^e) is exactly rounded (Clinger 1990);
- * anything else goes through Number(). Returns NaN for a malformed value.
+ * Parse a decimal number from bytes [s, e). Fast path: at most 15 significant digits and a power
+ * of ten up to 22, where m·10^e (or m/10^e) is exactly rounded (Clinger 1990); anything else goes
+ * through Number(). Returns NaN for a malformed value.
  */
-export function attrNumber(t: XmlTag, k: number): number {
-  const b = t.bytes;
-  let i = t.ranges[k * 4 + 2]!;
-  let e = t.ranges[k * 4 + 3]!;
+export function numberAt(b: Uint8Array, s: number, e: number): number {
+  let i = s;
   while (i < e && isWs(b[i]!)) i++;
   while (e > i && isWs(b[e - 1]!)) e--;
   const start = i;
@@ -233,7 +238,12 @@ export function attrNumber(t: XmlTag, k: number): number {
   }
   if (!any) return NaN;
   if (i === e && digits <= 15 && scale <= 22) return (neg ? -m : m) / POW10[scale]!;
-  const s = decodeName(b, start, e);
-  if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(s)) return NaN;
-  return Number(s);
+  const str = decodeName(b, start, e);
+  if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(str)) return NaN;
+  return Number(str);
+}
+
+/** The attribute's value as a number (see numberAt). */
+export function attrNumber(t: XmlTag, k: number): number {
+  return numberAt(t.bytes, t.ranges[k * 4 + 2]!, t.ranges[k * 4 + 3]!);
 }

@@ -3,6 +3,7 @@
  * here is only a proxy (each overhang facet's column reaches the bed); the height field in
  * support.ts refines the best directions.
  */
+import { isOverhang } from "@/lib/mesh/overhang";
 import type { FacetData } from "./geometry";
 import type { Mat3 } from "./rotation";
 
@@ -42,7 +43,7 @@ export function quickMetrics(
   for (let t = 0; t < f.count; t++) {
     // n · down, with down = −up.
     const nd = -(ux * N[3 * t]! + uy * N[3 * t + 1]! + uz * N[3 * t + 2]!);
-    if (nd <= sinTheta) continue;
+    if (!isOverhang(nd, 1, sinTheta)) continue;
     const hc = ux * C[3 * t]! + uy * C[3 * t + 1]! + uz * C[3 * t + 2]!;
     const a = A[t]!;
     if (nd >= COS_CONTACT && hc <= bedTop) bedContactArea += a;

@@ -2,6 +2,7 @@
  * Orientation search: fast measures for every candidate direction, then the height-field support
  * estimate and exact footprint for the best few, ranked by the score in score.ts.
  */
+import { overhangLimit } from "@/lib/mesh/overhang";
 import type { IndexedMesh, TriangleSoup, Vec3 } from "@/lib/mesh/types";
 import { candidateDirections, type CandidateDirection } from "./directions";
 import { fitPrinters } from "./fit";
@@ -56,8 +57,7 @@ export async function searchOrientations(soup: TriangleSoup, options: OrientOpti
 }
 
 export async function searchOrientationsIndexed(mesh: IndexedMesh, options: OrientOptions = {}): Promise<OrientationResult> {
-  const theta = ((options.overhangAngle ?? 45) * Math.PI) / 180;
-  const sinTheta = Math.sin(theta);
+  const sinTheta = overhangLimit(options.overhangAngle ?? 45);
   const layer = options.layerHeight ?? 0.2;
   const printers = options.printers ?? [];
   const weights = { ...DEFAULT_WEIGHTS, ...options.weights };

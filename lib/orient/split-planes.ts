@@ -2,6 +2,7 @@
  * Candidate cutting planes for a part already in its print orientation (Z up, resting on z = 0).
  * A plane is {normal, offset}: the points p with normal · p = offset.
  */
+import { overhangLimit, isOverhang } from "@/lib/mesh/overhang";
 import type { IndexedMesh, Vec3 } from "@/lib/mesh/types";
 import { boundsOf, facetData } from "./geometry";
 
@@ -36,7 +37,7 @@ export function overhangHeights(mesh: IndexedMesh, sinTheta: number, layer: numb
   const lowest = new Float64Array(bins).fill(Infinity);
   for (let t = 0; t < f.count; t++) {
     const nz = f.normals[3 * t + 2]!;
-    if (-nz <= sinTheta) continue;
+    if (!isOverhang(-nz, 1, sinTheta)) continue;
     const h = f.centroids[3 * t + 2]! - z0;
     if (h <= layer) continue; // on the bed
     const k = Math.min(bins - 1, Math.floor(h / binSize));
@@ -60,7 +61,7 @@ function planeKey(p: CutPlane): string {
 
 export function candidatePlanes(mesh: IndexedMesh, opts: PlaneOptions = {}): CutPlane[] {
   const max = opts.maxPlanes ?? 12;
-  const sinTheta = opts.sinTheta ?? Math.SQRT1_2;
+  const sinTheta = opts.sinTheta ?? overhangLimit(45);
   const layer = opts.layerHeight ?? 0.2;
   const b = boundsOf(mesh.vertices);
   const mid: Vec3 = [(b.min[0] + b.max[0]) / 2, (b.min[1] + b.max[1]) / 2, (b.min[2] + b.max[2]) / 2];
@@ -120,7 +121,7 @@ export function screenPlanes(mesh: IndexedMesh, planes: CutPlane[], sinTheta: nu
       const s = nx * cx + ny * cy + nz * cz - plane.offset;
       if ((s >= 0 ? 1 : -1) !== side && side !== 0) continue;
       const nd = down[0] * n[3 * t]! + down[1] * n[3 * t + 1]! + down[2] * n[3 * t + 2]!;
-      if (nd <= sinTheta) continue;
+      if (!isOverhang(nd, 1, sinTheta)) continue;
       const h = fromPlane ? Math.abs(s) : -(down[0] * cx + down[1] * cy + down[2] * cz) - lo;
       if (h > 1e-6) sum += f.areas[t]! * nd * h;
     }

@@ -3,6 +3,7 @@
  * best orientation, and ranks the cuts by fitting and by support saved. Also splits a part that fits
  * no printer, again and again, until every piece fits. Needs manifold-3d, passed in by the caller.
  */
+import { overhangLimit } from "@/lib/mesh/overhang";
 import type { IndexedMesh, TriangleSoup } from "@/lib/mesh/types";
 import { soupFromIndexed, weld } from "./geometry";
 import { cutIntoPieces, indexedFromSolid, solidFromIndexed, type ManifoldWasm, type Solid } from "./manifold-bridge";
@@ -165,7 +166,7 @@ async function cutToFit(ctx: Ctx, whole: Solid, maxDepth: number, tick: (f: numb
 export async function splitUntilFits(wasm: ManifoldWasm, soup: TriangleSoup, options: SplitOptions = {}): Promise<SplitCandidate | null> {
   const printers = options.printers ?? [];
   if (!printers.length) return null;
-  const sinTheta = Math.sin(((options.overhangAngle ?? 45) * Math.PI) / 180);
+  const sinTheta = overhangLimit(options.overhangAngle ?? 45);
   const pieceOpts: OrientOptions = { ...PIECE_SEARCH, ...options.pieceSearch, printers, overhangAngle: options.overhangAngle, layerHeight: options.layerHeight, signal: options.signal };
   const ctx: Ctx = { wasm, pieceOpts, printersGiven: true };
   const mesh = printFrameMesh(soup, options.rotation);
@@ -188,7 +189,7 @@ export async function splitUntilFits(wasm: ManifoldWasm, soup: TriangleSoup, opt
 
 export async function planSplits(wasm: ManifoldWasm, soup: TriangleSoup, options: SplitOptions = {}): Promise<SplitPlan> {
   const printers = options.printers ?? [];
-  const sinTheta = Math.sin(((options.overhangAngle ?? 45) * Math.PI) / 180);
+  const sinTheta = overhangLimit(options.overhangAngle ?? 45);
   const pieceOpts: OrientOptions = { ...PIECE_SEARCH, ...options.pieceSearch, printers, overhangAngle: options.overhangAngle, layerHeight: options.layerHeight, signal: options.signal };
   const ctx: Ctx = { wasm, pieceOpts, printersGiven: printers.length > 0 };
   const tick = makeTicker(options.signal, options.onProgress);

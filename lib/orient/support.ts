@@ -8,10 +8,11 @@
  * the bed when there is none. Volume = Σ column heights × cell area. Worked method, no source.
  */
 
+import { isOverhang } from "@/lib/mesh/overhang";
 export interface HeightFieldOptions {
   /** Cell edge, mm. */
   cellSize: number;
-  /** sin θ for the self-supporting angle θ from vertical: overhang when −n_z > sin θ. */
+  /** The overhang limit (lib/mesh overhangLimit: sin θ, θ from vertical, plus the tolerance): overhang when −n_z > it. */
   sinTheta: number;
 }
 
@@ -109,7 +110,7 @@ export function supportVolumeHeightField(
     const wx = px2 - ax, wy = py2 - ay, wz = (z2 - az) * inv;
     const nx3 = uy * wz - uz * wy, ny3 = uz * wx - ux * wz, nz = ux * wy - uy * wx;
     const nlen = Math.sqrt(nx3 * nx3 + ny3 * ny3 + nz * nz);
-    const kind = nz > 0 ? KIND_UP : -nz > sinTheta * nlen ? KIND_OVERHANG : KIND_DOWN;
+    const kind = nz > 0 ? KIND_UP : isOverhang(-nz, nlen, sinTheta) ? KIND_OVERHANG : KIND_DOWN;
     // Counter-clockwise order in the plane for the edge tests.
     let bx = px1, by = py1, bz = z1, cx = px2, cy = py2, cz = z2;
     if (area2 < 0) {

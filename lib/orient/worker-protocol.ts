@@ -2,6 +2,7 @@
  * Messages between the page and the orientation worker, and the plain data it sends back. Pure:
  * the worker shell and the hook import only types and the helpers below.
  */
+import { overhangLimit, isOverhang } from "@/lib/mesh/overhang";
 import type { Quat, Rotation } from "./rotation";
 import type { CutPlane } from "./split-planes";
 import type { OrientationCandidate, Printer } from "./types";
@@ -81,7 +82,7 @@ export type FromWorker =
 export function overhangMaskFor(positions: Float32Array, overhangAngle = 45, layerHeight = 0.2): Uint8Array {
   const n = positions.length / 9;
   const mask = new Uint8Array(n);
-  const sinT = Math.sin((overhangAngle * Math.PI) / 180);
+  const sinT = overhangLimit(overhangAngle);
   const cosContact = Math.cos((2 * Math.PI) / 180);
   for (let t = 0; t < n; t++) {
     const o = 9 * t;
@@ -91,7 +92,7 @@ export function overhangMaskFor(positions: Float32Array, overhangAngle = 45, lay
     const len = Math.hypot(cx, cy, cz);
     if (!(len > 0)) continue;
     const down = -cz / len;
-    if (down <= sinT) continue;
+    if (!isOverhang(down, 1, sinT)) continue;
     const zc = (positions[o + 2]! + positions[o + 5]! + positions[o + 8]!) / 3;
     if (down >= cosContact && zc <= layerHeight / 2) continue;
     mask[t] = 1;

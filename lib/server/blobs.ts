@@ -2,7 +2,7 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import { mkdir, rm, writeFile } from "node:fs/promises";
 import path from "node:path";
-import { asc, eq, inArray, sql } from "drizzle-orm";
+import { asc, eq, inArray, or, sql } from "drizzle-orm";
 import { db, type Db } from "@/db";
 import { meshBlobs, partFiles } from "@/db/schema";
 import { blobStore, tempDir } from "./storage";
@@ -92,7 +92,7 @@ export async function withBlobsHeld<T>(blobs: BlobBytes[], written: Set<string>,
 }
 
 /**
- * Removes the stored bytes and row of each hash no part file refers to, each under its row lock, so
+ * Removes the stored bytes and row of each hash no part file refers to (as its mesh or its source), each under its row lock, so
  * an upload recording the same bytes at the same moment either finishes first (and the bytes stay)
  * or waits and then writes them again. Failures to delete bytes are ignored (an orphan file is
  * harmless: the next upload of those bytes reuses it).
@@ -107,7 +107,7 @@ export async function forgetUnusedBlobs(blobs: { sha256: string; sizeBytes: numb
         if (!row) return; // another clean-up removed it, bytes and all, under the same lock
         // This transaction's first plain read, so its snapshot is taken after the lock: it sees every
         // committed reference, and no uncommitted one can exist while we hold the row.
-        const [used] = await tx.select({ n: sql<number>`COUNT(*)` }).from(partFiles).where(eq(partFiles.sha256, sha256));
+        const [used] = await tx.select({ n: sql<number>`COUNT(*)` }).from(partFiles).where(or(eq(partFiles.sha256, sha256), eq(partFiles.sourceSha256, sha256)));
         if (Number(used?.n ?? 0) > 0) return;
         await blobStore().delete(sha256).catch(() => undefined);
         await tx.delete(meshBlobs).where(eq(meshBlobs.sha256, sha256));

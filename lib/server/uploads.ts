@@ -2,11 +2,12 @@ import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { mkdir, open, readFile, rm } from "node:fs/promises";
 import path from "node:path";
-import { and, eq, sql } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { db } from "@/db";
 import { meshBlobs, partFiles, parts } from "@/db/schema";
 import { env } from "@/lib/env";
-import { analysisToJson, analyzeBytes, isMeshReadError, type AnalysisJson } from "@/lib/mesh";
+import { analysisToJson, isMeshReadError, write3mf, type AnalysisJson } from "@/lib/mesh";
+import { analyzeFile } from "@/lib/mesh-node/step";
 import type { UploadQuery } from "@/lib/validation/assemblies";
 import { forgetUnusedBlobs, withBlobsHeld } from "./blobs";
 import { AppError } from "./errors";
@@ -78,6 +79,7 @@ export async function receiveUpload(
   const rewritten = new Set<string>();
   let sha256 = "";
   let sizeBytes = 0;
+  let meshBlob: { sha256: string; sizeBytes: number } | undefined;
   try {
     const spooled = await spool(body, temp, limit);
     sha256 = spooled.sha256;
@@ -85,16 +87,27 @@ export async function receiveUpload(
     const bytes = new Uint8Array(await readFile(temp));
     let analysed;
     try {
-      analysed = analyzeBytes(bytes, { filename: q.name, units: q.units });
+      analysed = await analyzeFile(bytes, { filename: q.name, units: q.units });
     } catch (e) {
       if (isMeshReadError(e)) throw new AppError("invalid", `${q.name} could not be read: ${e.message}.`, { file: [e.message] });
       throw e;
     }
     const json = analysisToJson(q.name, analysed.format, analysed.analysis);
+    // A STEP file is kept as uploaded (the source) beside a 3MF of its tessellation, one object per
+    // body: that mesh is what the viewer, plates and exports read.
+    const soup = analysed.soup;
+    const mesh = analysed.format === "step" && soup
+      ? write3mf((analysed.parts ?? [{ objectId: "1", name: undefined, firstTriangle: 0, triangleCount: soup.positions.length / 9 }]).map((p) => ({
+          name: p.name ?? `body ${p.objectId}`,
+          mesh: { positions: soup.positions.subarray(9 * p.firstTriangle, 9 * (p.firstTriangle + p.triangleCount)) },
+        })))
+      : undefined;
+    const meshSha = mesh ? createHash("sha256").update(mesh).digest("hex") : sha256;
+    if (mesh) meshBlob = { sha256: meshSha, sizeBytes: mesh.byteLength };
     stored = await store.putFile(sha256, temp);
     // Recorded under the blob's row lock, so a concurrent clean-up of the same bytes cannot remove them
     // between here and the commit (and if one removed them just before, they are written again).
-    const row = await withBlobsHeld([{ sha256, bytes }], rewritten, async (tx) => {
+    const row = await withBlobsHeld(mesh ? [{ sha256, bytes }, { sha256: meshSha, bytes: mesh }] : [{ sha256, bytes }], rewritten, async (tx) => {
       const [cur] = await tx.select({ id: parts.id }).from(parts).where(eq(parts.id, partId)).for("update");
       if (!cur) throw new AppError("not_found", "The part was deleted while the file was uploading.");
       const [max] = await tx.select({ n: sql<number>`COALESCE(MAX(${partFiles.versionNo}), 0)` }).from(partFiles).where(eq(partFiles.partId, partId));
@@ -103,7 +116,8 @@ export async function receiveUpload(
         .insert(partFiles)
         .values({
           partId,
-          sha256,
+          sha256: meshSha,
+          sourceSha256: mesh ? sha256 : null,
           versionNo,
           originalName: q.name,
           units: q.units,
@@ -123,24 +137,31 @@ export async function receiveUpload(
     return { ...row, sha256, sizeBytes: spooled.size, alreadyStored: !stored && rewritten.size === 0, analysis: json, warnings: analysed.warnings };
   } catch (e) {
     // Bytes this call stored, and that no recorded file refers to, are taken back out (under the lock).
-    if (stored || rewritten.size) await forgetUnusedBlobs([{ sha256, sizeBytes }]).catch((err: unknown) => console.error("[platewright] upload clean-up failed", err));
+    if (stored || rewritten.size) await forgetUnusedBlobs([{ sha256, sizeBytes }, ...(meshBlob ? [meshBlob] : [])]).catch((err: unknown) => console.error("[platewright] upload clean-up failed", err));
     throw e;
   } finally {
     await rm(temp, { force: true });
   }
 }
 
-/** A stored upload, for those who may read its part. */
-export async function openPartFile(user: SessionUser, fileId: number): Promise<{ name: string; size: number; stream: ReadableStream<Uint8Array> }> {
+/**
+ * A stored upload, for those who may read its part: the mesh (for a STEP upload, the 3MF made from
+ * it, named .3mf), or with `source` the file as uploaded (the STEP itself; the mesh when there is none).
+ */
+export async function openPartFile(user: SessionUser, fileId: number, opts: { source?: boolean } = {}): Promise<{ name: string; size: number; stream: ReadableStream<Uint8Array> }> {
   const [row] = await db()
-    .select({ partId: partFiles.partId, sha256: partFiles.sha256, name: partFiles.originalName, size: meshBlobs.sizeBytes })
+    .select({ partId: partFiles.partId, sha256: partFiles.sha256, sourceSha256: partFiles.sourceSha256, name: partFiles.originalName })
     .from(partFiles)
-    .innerJoin(meshBlobs, and(eq(meshBlobs.sha256, partFiles.sha256)))
     .where(eq(partFiles.id, fileId))
     .limit(1);
   if (!row) throw new AppError("not_found", "No such file, or it is not shared with you.");
   await partAccess(user, row.partId).catch(() => {
     throw new AppError("not_found", "No such file, or it is not shared with you.");
   });
-  return { name: row.name, size: row.size, stream: await blobStore().stream(row.sha256) };
+  const useSource = opts.source === true && row.sourceSha256 !== null;
+  const sha = useSource ? row.sourceSha256! : row.sha256;
+  const name = row.sourceSha256 !== null && !useSource ? row.name.replace(/\.(step|stp)$/i, "") + ".3mf" : row.name;
+  const [blob] = await db().select({ size: meshBlobs.sizeBytes }).from(meshBlobs).where(eq(meshBlobs.sha256, sha)).limit(1);
+  if (!blob) throw new AppError("not_found", "No such file, or it is not shared with you.");
+  return { name, size: blob.size, stream: await blobStore().stream(sha) };
 }

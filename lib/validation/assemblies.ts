@@ -104,7 +104,7 @@ export const uploadQuery = z.strictObject({
     .trim()
     .min(1, "The file needs a name.")
     .max(255)
-    .refine((n) => /\.(stl|3mf)$/i.test(n), "Only .stl and .3mf files can be uploaded."),
+    .refine((n) => /\.(stl|3mf|step|stp)$/i.test(n), "Only .stl, .3mf and .step (.stp) files can be uploaded."),
   units: z.enum(["mm", "in"], "Units are mm or in.").default("mm"),
 });
 export type UploadQuery = z.infer<typeof uploadQuery>;

@@ -7,13 +7,16 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { STLLoader } from "three/examples/jsm/loaders/STLLoader.js";
+import { nodeInflateRaw } from "@/lib/mesh-node/inflate";
 import { analyzeBytes, analyzeStlBinaryFull, analyzeStlFast, sharedWorkspace, write3mf, writeStl } from "@/lib/mesh";
 
-type Variant = "stlloader" | "ours" | "full" | "cold";
-/** The three the goals compare, alternated; "cold" is timed after them (dropping the kept memory
- * in between would hand its freeing to whichever variant runs next). */
-const VARIANTS: Variant[] = ["stlloader", "ours", "full"];
+type Variant = "stlloader" | "ours" | "full" | "threemf" | "cold";
+/** The four the goals compare, alternated; "cold" is timed after them (dropping the kept memory
+ * in between would hand its freeing to whichever variant runs next). "threemf" is the same mesh
+ * as a 3MF package, read and fully analysed. */
+const VARIANTS: Variant[] = ["stlloader", "ours", "full", "threemf"];
 const ALL: Variant[] = [...VARIANTS, "cold"];
+let threeMf: Uint8Array = new Uint8Array(0);
 
 /** The file as STLLoader takes it (an ArrayBuffer of its own, as a worker receives a transferred file). */
 const asArrayBuffer = (b: Uint8Array) => b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) as ArrayBuffer;
@@ -24,6 +27,13 @@ function run(v: Variant, bytes: Uint8Array, ab: ArrayBuffer): number {
     const g = new STLLoader().parse(ab);
     const dt = performance.now() - t0;
     if (g.getAttribute("position").count !== 3_000_000) throw new Error("STLLoader read a different mesh");
+    return dt;
+  }
+  if (v === "threemf") {
+    const t0 = performance.now();
+    const r = analyzeBytes(threeMf, { inflateRaw: nodeInflateRaw });
+    const dt = performance.now() - t0;
+    if (r.analysis.triangles !== 1_000_000) throw new Error("3MF read a different mesh");
     return dt;
   }
   // "cold": the full analysis with no working memory kept from an earlier analysis (a first file).
@@ -62,6 +72,7 @@ if (process.argv[2] === "--mem") {
   const v = process.argv[3] as Variant;
   const buf = readFileSync(process.argv[4]!);
   const bytes = new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength);
+  if (v === "threemf") threeMf = new Uint8Array(readFileSync(process.argv[5]!));
   const ab = v === "stlloader" ? asArrayBuffer(bytes) : new ArrayBuffer(0);
   const before = process.memoryUsage().rss;
   run(v, bytes, ab);
@@ -76,9 +87,12 @@ try {
   const file = join(dir, "sphere.stl");
   writeFileSync(file, bytes);
   const size = bytes.length;
-  console.log(`binary STL: 1,000,000 triangles, ${mb(size).toFixed(1)} MB`);
+  threeMf = write3mf([{ name: "sphere", mesh: { positions: soup } }]);
+  const file3mf = join(dir, "sphere.3mf");
+  writeFileSync(file3mf, threeMf);
+  console.log(`binary STL: 1,000,000 triangles, ${mb(size).toFixed(1)} MB; as 3MF ${mb(threeMf.length).toFixed(1)} MB zipped`);
 
-  const times: Record<Variant, number[]> = { stlloader: [], ours: [], full: [], cold: [] };
+  const times: Record<Variant, number[]> = { stlloader: [], ours: [], full: [], threemf: [], cold: [] };
   const ab = asArrayBuffer(bytes);
   // Warm-up, not timed: three alternated rounds, so every variant's code has reached the engine's
   // optimising tier (ours takes a few runs: each analysis calls its long loops once) before timing.
@@ -89,27 +103,28 @@ try {
   if (process.env.BENCH_VERBOSE) for (const v of ALL) console.log(v, times[v].map((t) => t.toFixed(0)).join(" "));
 
   const self = fileURLToPath(import.meta.url);
-  const peak: Record<Variant, number> = { stlloader: 0, ours: 0, full: 0, cold: 0 };
+  const peak: Record<Variant, number> = { stlloader: 0, ours: 0, full: 0, threemf: 0, cold: 0 };
   for (const v of ALL) {
-    const out = execFileSync(process.execPath, [...process.execArgv, self, "--mem", v, file], { encoding: "utf8" });
+    const out = execFileSync(process.execPath, [...process.execArgv, self, "--mem", v, file, file3mf], { encoding: "utf8" });
     peak[v] = Number(out);
   }
-  const label: Record<Variant, string> = { stlloader: "three STLLoader.parse", ours: "ours read+single-pass", full: "ours full analysis", cold: "  same, fresh memory" };
+  const label: Record<Variant, string> = { stlloader: "three STLLoader.parse", ours: "ours read+single-pass", full: "ours full analysis", threemf: "3MF read+full analysis", cold: "  same, fresh memory" };
   for (const v of ALL) {
     const m = median(times[v]);
-    console.log(`${label[v].padEnd(22)} median ${m.toFixed(1).padStart(7)} ms  ${(mb(size) / (m / 1000)).toFixed(0).padStart(5)} MB/s  peak +${mb(peak[v]).toFixed(0)} MB (${(peak[v] / size).toFixed(2)}× file)`);
+    const fileSize = v === "threemf" ? threeMf.length : size;
+    console.log(`${label[v].padEnd(22)} median ${m.toFixed(1).padStart(7)} ms  ${(mb(fileSize) / (m / 1000)).toFixed(0).padStart(5)} MB/s  peak +${mb(peak[v]).toFixed(0)} MB (${(peak[v] / fileSize).toFixed(2)}× file)`);
   }
 
-  const threeMf = write3mf([{ name: "sphere", mesh: { positions: soup } }]);
-  const t3: number[] = [];
+  // The browser worker has no zlib: the same read with fflate's inflater, for reference.
+  const tf: number[] = [];
   for (let k = 0; k < 3; k++) {
     const t0 = performance.now();
-    const r = analyzeBytes(threeMf);
-    t3.push(performance.now() - t0);
-    if (r.analysis.triangles !== 1_000_000) throw new Error("3MF read a different mesh");
+    analyzeBytes(threeMf);
+    tf.push(performance.now() - t0);
   }
-  console.log(`3MF (${mb(threeMf.length).toFixed(1)} MB zipped) read+full analysis median ${median(t3).toFixed(0)} ms`);
+  console.log(`(3MF read+full analysis with fflate's inflater, as in the browser worker: median ${median(tf).toFixed(0)} ms, ${(median(tf) / median(times.full)).toFixed(2)}× the STL full analysis)`);
   console.log(`(full analysis keeps its working memory between files, as the worker and server do; a first file: ratio stlloader/full-fresh: ${(median(times.stlloader) / median(times.cold)).toFixed(2)})`);
+  console.log(`ratio 3mf/stl-full: ${(median(times.threemf) / median(times.full)).toFixed(2)}`);
   console.log(`ratio stlloader/full: ${(median(times.stlloader) / median(times.full)).toFixed(2)}`);
   console.log(`ratio stlloader/ours: ${(median(times.stlloader) / median(times.ours)).toFixed(2)}`);
 } finally {

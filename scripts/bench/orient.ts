@@ -4,6 +4,7 @@
  * ~100,000 triangles ≤ 10 s. Prints figures; asserts nothing.
  */
 import Module from "manifold-3d";
+import { overhangLimit } from "@/lib/mesh/overhang";
 import { weld } from "@/lib/orient/geometry";
 import { soupFromSolid, type Solid } from "@/lib/orient/manifold-bridge";
 import { rotatePoints, rotationForDown } from "@/lib/orient/rotation";
@@ -57,7 +58,7 @@ const t1 = performance.now();
 const sample = 8;
 for (let i = 0; i < sample; i++) {
   const rot = rotationForDown([Math.sin(i), Math.cos(i), -0.5]);
-  supportVolumeHeightField(rotatePoints(mesh.vertices, rot.matrix), mesh.indices, { cellSize: 0.5, sinTheta: Math.SQRT1_2 });
+  supportVolumeHeightField(rotatePoints(mesh.vertices, rot.matrix), mesh.indices, { cellSize: 0.5, sinTheta: overhangLimit(45) });
 }
 const perField = ms(t1) / sample;
 

@@ -31,6 +31,26 @@ describe("binary STL byte layout (STL format description: Burns, Automated Fabri
     expect(r.soup.positions).toEqual(cube(2).positions);
   });
 
+  it("reads a binary file with a 'solid' header and trailing bytes (size rule 84 + 50·N, then the ASCII grammar)", () => {
+    // STL format description (Burns §6.5; Bourke 1999): a binary file is 84 + 50·N bytes; the header is
+    // free text, so it may begin with 'solid'. With integer coordinates no record byte is a line break,
+    // so a reader that trusts 'solid' and looks for the next line never finds a facet.
+    const b = writeStl(cube(2));
+    const padded = new Uint8Array(b.length + 3);
+    padded.set(b);
+    padded.set(new TextEncoder().encode("solid cube exported with a text header"), 0);
+    const r = readMesh(padded);
+    expect(r.format).toBe("stl-binary");
+    expect(r.soup.positions).toEqual(cube(2).positions);
+    expect(r.warnings[0]).toMatch(/3 bytes after the last triangle/);
+  });
+
+  it("still reads ASCII whose size happens to pass the trailing-bytes rule", () => {
+    // A 'solid' text that parses as facets is ASCII even when bytes 80–83 give a count that fits.
+    const text = new TextEncoder().encode(asciiStl(cube(1)));
+    expect(readMesh(text).format).toBe("stl-ascii");
+  });
+
   it("reads records in place whatever the parity and alignment (odd count, byteOffset 2)", () => {
     const soup = uvSphere(7, 5, 3); // 7·(2·5−2) = 56 triangles; trim to an odd count below
     const odd = { positions: soup.positions.slice(0, 9 * 55) };

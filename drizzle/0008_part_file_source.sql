@@ -1,0 +1,2 @@
+ALTER TABLE `part_files` ADD `source_sha256` char(64);--> statement-breakpoint
+ALTER TABLE `part_files` ADD CONSTRAINT `part_files_source_sha256_mesh_blobs_sha256_fk` FOREIGN KEY (`source_sha256`) REFERENCES `mesh_blobs`(`sha256`) ON DELETE no action ON UPDATE no action;
