@@ -131,15 +131,11 @@ export async function progressOf(ids: number[]): Promise<{ needed: number; done:
 
 export async function createAssembly(user: SessionUser, input: AssemblyInput): Promise<{ id: number }> {
   if (user.role !== "member") throw new AppError("forbidden", "Assemblies belong to members; the workshop reads them.");
-  const d = db();
-  return d.transaction(async (tx) => {
-    let rootId: number | null = null;
-    let ownerId = user.id;
-    if (input.parentId) {
-      const a = await requireEdit(user, input.parentId);
-      rootId = a.rootId;
-      ownerId = a.ownerId; // a sub-assembly belongs to the tree's owner, whoever adds it
-    }
+  // The access check reads through the pool, so it runs before the transaction (one connection each).
+  const parent = input.parentId ? await requireEdit(user, input.parentId) : null;
+  return db().transaction(async (tx) => {
+    const rootId: number | null = parent ? parent.rootId : null;
+    const ownerId = parent ? parent.ownerId : user.id; // a sub-assembly belongs to the tree's owner, whoever adds it
     const [res] = await tx
       .insert(assemblies)
       .values({ ownerId, parentId: input.parentId ?? null, rootId, name: input.name, description: input.description, targetDate: input.targetDate ?? null })
