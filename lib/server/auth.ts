@@ -7,6 +7,7 @@ import { z } from "zod";
 import { db } from "@/db";
 import { users, type Role } from "@/db/schema";
 import { clientAddress } from "./client-address";
+import { endAllSessions, sessionVersionOf } from "./session-version";
 import { clearFailures, lockedFor, recordFailure } from "./throttle";
 
 const credentialsSchema = z.object({
@@ -40,16 +41,29 @@ export const authOptions: NextAuthOptions = {
           throw new Error("That e-mail address and password do not match an account.");
         }
         await Promise.all(keys.map((k) => clearFailures(k)));
-        return { id: String(user.id), email: user.email, name: user.name, role: user.role };
+        return { id: String(user.id), email: user.email, name: user.name, role: user.role, sessionVersion: user.sessionVersion };
       },
     }),
   ],
+  events: {
+    // Signing out ends every session of the account (a JWT cannot be revoked one by one).
+    async signOut({ token }) {
+      const uid = Number(token?.uid);
+      if (Number.isInteger(uid) && uid > 0) await endAllSessions(uid);
+    },
+  },
   callbacks: {
     async jwt({ token, user }) {
       if (user) {
         token.uid = Number(user.id);
         token.role = (user as { role?: Role }).role;
+        token.sv = (user as { sessionVersion?: number }).sessionVersion ?? 0;
+        return token;
       }
+      // next-auth's own session endpoint: a session that was ended is refused there too (it then
+      // clears the cookie). Server code checks the version itself on every request (currentUser).
+      const uid = Number(token.uid);
+      if (!Number.isInteger(uid) || (await sessionVersionOf(uid)) !== token.sv) throw new Error("This session has ended.");
       return token;
     },
     async session({ session, token }) {

@@ -8,6 +8,7 @@ import type { ResetConfirmInput } from "@/lib/validation/mail";
 import { AppError } from "./errors";
 import { hashToken, newToken, type LinkState } from "./invitations";
 import { appUrl, notify } from "./mail";
+import { endAllSessions } from "./session-version";
 
 /** At most this many open links per account, so the form cannot be used to flood someone's inbox. */
 const MAX_OPEN = 3;
@@ -62,6 +63,7 @@ export async function confirmPasswordReset(input: ResetConfirmInput): Promise<{ 
     const [u] = await tx.select({ email: users.email }).from(users).where(eq(users.id, r.userId)).limit(1);
     if (!u) throw new AppError("conflict", "This reset link is not valid. Ask for a new one.");
     await tx.update(users).set({ passwordHash, updatedAt: new Date() }).where(eq(users.id, r.userId));
+    await endAllSessions(r.userId, tx); // sessions signed in with the old password end here
     await tx.update(passwordResets).set({ usedAt: new Date() }).where(and(eq(passwordResets.userId, r.userId), isNull(passwordResets.usedAt)));
     return { email: u.email };
   });
