@@ -1,7 +1,11 @@
-// Runs once when a Next server process starts (Node.js runtime): the mail outbox worker, and a sweep
+// Runs once when a Next server process starts (Node.js runtime): the socket-address rewrite for the
+// sign-in throttle, the mail outbox worker, and a sweep
 // of temporary upload files that a process killed mid-upload left behind.
 export async function register() {
   if (process.env.NEXT_RUNTIME === "nodejs") {
+    // First: the throttle's client address comes from the socket, not from what a client wrote.
+    const { installPeerAddress } = await import("@/lib/server/peer-address");
+    installPeerAddress();
     const { startOutboxWorker } = await import("@/lib/server/mail/worker");
     startOutboxWorker();
     const { sweepTempFiles, TEMP_MAX_AGE_MS } = await import("@/lib/server/storage/sweep");

@@ -8,7 +8,7 @@ import { db } from "@/db";
 import { users, type Role } from "@/db/schema";
 import { clientAddress } from "./client-address";
 import { endAllSessions, sessionVersionOf } from "./session-version";
-import { clearFailures, lockedFor, recordFailure } from "./throttle";
+import { clearFailures, takeAttempt } from "./throttle";
 
 const credentialsSchema = z.object({
   email: z.string().trim().toLowerCase().email().max(254),
@@ -30,16 +30,15 @@ export const authOptions: NextAuthOptions = {
         if (!parsed.success) throw new Error("Enter your e-mail address and password.");
         const { email, password } = parsed.data;
         const keys = [`account:${email}`, `address:${clientAddress(req?.headers)}`];
+        // Each attempt is counted before its password is checked (atomically), so parallel guesses
+        // cannot all pass the check before the first of them is recorded.
         for (const key of keys) {
-          const wait = await lockedFor(key);
+          const wait = await takeAttempt(key);
           if (wait > 0) throw new Error(`Too many failed attempts. Try again in ${wait} s.`);
         }
         const [user] = await db().select().from(users).where(eq(users.email, email)).limit(1);
         const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
-        if (!user || !ok || !user.active) {
-          await Promise.all(keys.map((k) => recordFailure(k)));
-          throw new Error("That e-mail address and password do not match an account.");
-        }
+        if (!user || !ok || !user.active) throw new Error("That e-mail address and password do not match an account.");
         await Promise.all(keys.map((k) => clearFailures(k)));
         return { id: String(user.id), email: user.email, name: user.name, role: user.role, sessionVersion: user.sessionVersion };
       },
