@@ -32,7 +32,8 @@ const securityHeaders = [
 const nextConfig: NextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
-  serverExternalPackages: ["mysql2"],
+  // piscina starts its worker threads from its own files on disk, so it is loaded from node_modules.
+  serverExternalPackages: ["mysql2", "piscina"],
   allowedDevOrigins: ["127.0.0.1"],
   experimental: { authInterrupts: true },
   // `npm test` type-checks the whole tree as its own step (tsc --noEmit); the build need not repeat it.

@@ -2,7 +2,7 @@ import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError } from "zod";
 
-export type ErrorCode = "bad_request" | "unauthenticated" | "forbidden" | "not_found" | "conflict" | "too_large" | "invalid" | "unavailable";
+export type ErrorCode = "bad_request" | "unauthenticated" | "forbidden" | "not_found" | "conflict" | "too_large" | "invalid" | "too_many" | "unavailable";
 
 const statusOf: Record<ErrorCode, number> = {
   bad_request: 400,
@@ -12,6 +12,7 @@ const statusOf: Record<ErrorCode, number> = {
   conflict: 409,
   too_large: 413,
   invalid: 422,
+  too_many: 429,
   unavailable: 503,
 };
 
@@ -21,6 +22,8 @@ export class AppError extends Error {
     public readonly code: ErrorCode,
     message: string,
     public readonly fieldErrors?: Record<string, string[]>,
+    /** Seconds, sent as Retry-After (with too_many and unavailable). */
+    public readonly retryAfterS?: number,
   ) {
     super(message);
     this.name = "AppError";
@@ -90,7 +93,7 @@ export function dbErrorMessage(kind: DbErrorKind): string {
 /** Maps any thrown value to a JSON response; unknown errors are logged and answered generically. */
 export function errorResponse(e: unknown): NextResponse {
   if (e instanceof AppError) {
-    return NextResponse.json({ error: e.message, code: e.code, fieldErrors: e.fieldErrors }, { status: e.status });
+    return NextResponse.json({ error: e.message, code: e.code, fieldErrors: e.fieldErrors }, { status: e.status, headers: e.retryAfterS ? { "Retry-After": String(e.retryAfterS) } : undefined });
   }
   if (e instanceof ZodError) {
     return NextResponse.json(

@@ -6,12 +6,14 @@ import { and, eq, sql } from "drizzle-orm";
 import { db } from "@/db";
 import { meshBlobs, partFiles, parts } from "@/db/schema";
 import { env } from "@/lib/env";
-import { analysisToJson, analyzeBytes, isMeshReadError, type AnalysisJson } from "@/lib/mesh";
+import type { AnalysisJson } from "@/lib/mesh";
 import type { UploadQuery } from "@/lib/validation/assemblies";
 import { forgetUnusedBlobs, withBlobsHeld } from "./blobs";
 import { AppError } from "./errors";
+import { analyzeInWorker, inflateCapFor } from "./mesh-pool/pool";
 import { partAccess, requirePartEdit } from "./parts";
 import type { SessionUser } from "./session";
+import { uploadBudget } from "./upload-budget";
 import { blobStore, tempDir } from "./storage";
 
 export interface UploadResult {
@@ -32,7 +34,7 @@ export function uploadLimitBytes(): number {
 const tooLarge = (limit: number) => new AppError("too_large", `The file is larger than the upload limit of ${Math.round(limit / 1024 / 1024)} MB.`);
 
 /** Streams a body to a temporary file while hashing and counting; stops at the limit. */
-async function spool(body: ReadableStream<Uint8Array>, temp: string, limit: number): Promise<{ sha256: string; size: number }> {
+async function spool(body: ReadableStream<Uint8Array>, temp: string, limit: number, counted: (bytes: number) => void): Promise<{ sha256: string; size: number }> {
   const hash = createHash("sha256");
   const fh = await open(temp, "wx");
   const reader = body.getReader();
@@ -42,6 +44,7 @@ async function spool(body: ReadableStream<Uint8Array>, temp: string, limit: numb
       const { done, value } = await reader.read();
       if (done) break;
       size += value.byteLength;
+      counted(size);
       if (size > limit) {
         await reader.cancel().catch(() => undefined);
         throw tooLarge(limit);
@@ -71,6 +74,17 @@ export async function receiveUpload(
   const limit = opts.limitBytes ?? uploadLimitBytes();
   if (opts.declaredLength !== undefined && opts.declaredLength > limit) throw tooLarge(limit);
   if (!body) throw new AppError("bad_request", "Send the file's bytes as the request body.");
+  const slot = uploadBudget().take(user.id);
+  if (!slot.ok) throw new AppError("too_many", `Too many uploads: ${slot.reason}. Try again in ${slot.retryAfterS} s.`, undefined, slot.retryAfterS);
+  let received = 0;
+  try {
+    return await receiveWithinBudget(user, partId, body, q, limit, (n) => (received = n));
+  } finally {
+    slot.finish(received);
+  }
+}
+
+async function receiveWithinBudget(user: SessionUser, partId: number, body: ReadableStream<Uint8Array>, q: UploadQuery, limit: number, counted: (bytes: number) => void): Promise<UploadResult> {
   await mkdir(tempDir(), { recursive: true });
   const temp = path.join(tempDir(), `${randomUUID()}.upload`);
   const store = blobStore();
@@ -79,18 +93,15 @@ export async function receiveUpload(
   let sha256 = "";
   let sizeBytes = 0;
   try {
-    const spooled = await spool(body, temp, limit);
+    const spooled = await spool(body, temp, limit, counted);
     sha256 = spooled.sha256;
     sizeBytes = spooled.size;
+    // Read and analysed in a worker thread (the request thread stays free), with the inflate cap
+    // scaled to the file's size so a small package cannot expand to hundreds of megabytes.
+    const analysed = await analyzeInWorker({ path: temp, filename: q.name, units: q.units, maxUncompressedBytes: inflateCapFor(spooled.size) });
+    if (!analysed.ok) throw new AppError("invalid", `${q.name} could not be read: ${analysed.message}.`, { file: [analysed.message] });
+    const json = analysed.json;
     const bytes = new Uint8Array(await readFile(temp));
-    let analysed;
-    try {
-      analysed = analyzeBytes(bytes, { filename: q.name, units: q.units });
-    } catch (e) {
-      if (isMeshReadError(e)) throw new AppError("invalid", `${q.name} could not be read: ${e.message}.`, { file: [e.message] });
-      throw e;
-    }
-    const json = analysisToJson(q.name, analysed.format, analysed.analysis);
     stored = await store.putFile(sha256, temp);
     // Recorded under the blob's row lock, so a concurrent clean-up of the same bytes cannot remove them
     // between here and the commit (and if one removed them just before, they are written again).
