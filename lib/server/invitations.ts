@@ -10,6 +10,7 @@ import type { AcceptInviteInput, InviteInput, PersonUpdateInput } from "@/lib/va
 import { AppError } from "./errors";
 import { appUrl, notify } from "./mail";
 import type { SessionUser } from "./session";
+import { assertPasswordStrong } from "./password-policy";
 import { endAllSessions } from "./session-version";
 
 /** 32 random bytes for the link; only their SHA-256 is stored, so a database leak opens no doors. */
@@ -85,6 +86,7 @@ const refusal: Record<Exclude<LinkState["state"], "valid">, string> = {
 
 /** Sets name and password and creates the member, once: the row is locked and marked used in one transaction. */
 export async function acceptInvitation(input: AcceptInviteInput): Promise<{ email: string }> {
+  assertPasswordStrong(input.password, [input.name]);
   const passwordHash = await bcrypt.hash(input.password, 10);
   return db().transaction(async (tx) => {
     const [inv] = await tx
