@@ -22,6 +22,8 @@ export interface AccessInfo {
   ownerId: number;
   /** The whole tree the assembly belongs to, for ancestors and subtrees. */
   tree: TreeNode[];
+  /** For access through a share: the highest shared node; nothing above it is shown to this viewer. */
+  sharedTop?: number;
 }
 
 export const canEdit = (a: Access) => a === "owner" || a === "edit";
@@ -39,19 +41,29 @@ export async function accessTo(user: SessionUser, assemblyId: number): Promise<A
     .from(assemblies)
     .where(eq(assemblies.rootId, rootId));
   let access: Access | null = null;
+  let sharedTop: number | undefined;
   if (row.ownerId === user.id) access = "owner";
   else if (user.role !== "member") access = "workshop";
   else {
     const chain = ancestors(tree, assemblyId).map((n) => n.id);
     const shares = await d
-      .select({ access: assemblyShares.access })
+      .select({ access: assemblyShares.access, assemblyId: assemblyShares.assemblyId })
       .from(assemblyShares)
       .where(and(eq(assemblyShares.userId, user.id), inArray(assemblyShares.assemblyId, chain)));
     if (shares.some((s) => s.access === "edit")) access = "edit";
     else if (shares.length) access = "read";
+    const shared = new Set(shares.map((s) => s.assemblyId));
+    sharedTop = [...chain].reverse().find((n) => shared.has(n));
   }
   if (!access) throw hidden();
-  return { access, rootId, ownerId: row.ownerId, tree };
+  return { access, rootId, ownerId: row.ownerId, tree, sharedTop };
+}
+
+/** The breadcrumb to a node, root first, cut at the highest node this viewer was given (a share's parents stay unnamed). */
+export function visibleTrail(info: AccessInfo, id: number): { id: number; name: string }[] {
+  const up = ancestors(info.tree, id);
+  const cut = info.sharedTop === undefined ? up.length : up.findIndex((n) => n.id === info.sharedTop) + 1;
+  return up.slice(0, cut > 0 ? cut : 1).reverse().map((n) => ({ id: n.id, name: n.name }));
 }
 
 /** Refuses with 403 when the caller may read but not change (they know it exists). */
