@@ -26,11 +26,6 @@ export function crossOriginRefusal(method: string, headers: HeaderSource, allowe
   return null;
 }
 
-/** Routes that keep their own protection: next-auth's (its CSRF token) and the provider's signed webhook. */
-export function originRuleApplies(pathname: string): boolean {
-  return pathname.startsWith("/api/") && !pathname.startsWith("/api/auth/") && !pathname.startsWith("/api/webhooks/");
-}
-
 /** Lower-case origin of a URL string, or null. */
 export function originOf(url: string | undefined | null): string | null {
   if (!url) return null;

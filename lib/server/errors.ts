@@ -2,7 +2,7 @@ import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError } from "zod";
 
-export type ErrorCode = "bad_request" | "unauthenticated" | "forbidden" | "not_found" | "conflict" | "too_large" | "invalid" | "too_many" | "unavailable";
+export type ErrorCode = "bad_request" | "unauthenticated" | "forbidden" | "not_found" | "conflict" | "too_large" | "invalid" | "too_many" | "unavailable" | "cross_origin";
 
 const statusOf: Record<ErrorCode, number> = {
   bad_request: 400,
@@ -14,6 +14,7 @@ const statusOf: Record<ErrorCode, number> = {
   invalid: 422,
   too_many: 429,
   unavailable: 503,
+  cross_origin: 403,
 };
 
 /** An error the user may see: its message is safe to show. */
