@@ -8,7 +8,7 @@ import { AsyncLocalStorage } from "node:async_hooks";
  * awaits) and refuses a pool call made from there: it throws outside production (so every test that
  * reaches such a path fails) and logs the stack in production.
  */
-const scope = new AsyncLocalStorage<{ started: number }>();
+const scope = new AsyncLocalStorage<{ open: boolean }>();
 
 export class PoolInTransactionError extends Error {
   constructor(method: string) {
@@ -21,7 +21,7 @@ const strict = () => process.env.NODE_ENV !== "production" || process.env.PW_TX_
 
 /** True while the current async context runs inside a transaction callback. */
 export function insideTransaction(): boolean {
-  return scope.getStore() !== undefined;
+  return scope.getStore()?.open === true;
 }
 
 function check(method: string): void {
@@ -57,6 +57,17 @@ export function guardPool<P extends object>(pool: P): P {
 export function guardTransactions<D extends { transaction: (...a: never[]) => unknown }>(d: D): D {
   const orig = d.transaction.bind(d) as unknown as (fn: (tx: unknown) => unknown, config?: unknown) => unknown;
   (d as unknown as { transaction: unknown }).transaction = (fn: (tx: unknown) => unknown, config?: unknown) =>
-    orig((tx) => scope.run({ started: Date.now() }, () => fn(tx)), config);
+    orig((tx) => {
+      // Work the callback started that outlives it (a timer, an unawaited promise) inherits this
+      // context; once the callback has settled it is no longer inside the transaction.
+      const store = { open: true };
+      return scope.run(store, async () => {
+        try {
+          return await fn(tx);
+        } finally {
+          store.open = false;
+        }
+      });
+    }, config);
   return d;
 }

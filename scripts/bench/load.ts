@@ -2,7 +2,8 @@
 // (GET /api/health), 50 connections for 10 s each, on the production server over loopback, in one run.
 // Prints requests per second and p95 latency for both and their ratio. Goal: the board keeps at least
 // 30% of the trivial route's throughput. Then a burst: 20 parallel re-plans (operator) while two
-// members keep reading (GET /api/me, /api/health); goal: no 5xx and no request over 5 s.
+// members keep reading (GET /api/me, /api/health); goal: no 5xx and no request over 5 s. Last,
+// eight parallel 3MF uploads while health is polled (./upload-burst.ts); goal: health under 1 s.
 // Not part of `npm test`.
 //
 // Usage: npm run bench:load  (needs a build: `next build` or `bash scripts/e2e.sh …` leaves one in .next)
@@ -14,6 +15,7 @@ import net from "node:net";
 import path from "node:path";
 import autocannon from "autocannon";
 import { demoUsers } from "../../db/seed-data";
+import { uploadBurst } from "./upload-burst";
 
 const LOCK = "/tmp/platewright-e2e.lock";
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
@@ -196,7 +198,9 @@ async function main(): Promise<number> {
     const clean = [trivial, queue].every((f) => f.errors === 0 && f.non2xx === 0);
     if (!clean) console.error("bench:load: some requests failed (see errors / non-2xx above)");
     const burstOk = await replanBurst(base, cookie);
-    return clean && burstOk ? 0 : 1;
+    const member = demoUsers.find((u) => u.role === "member")!;
+    const uploadsOk = await uploadBurst(base, await signIn(base, member.email, member.password));
+    return clean && burstOk && uploadsOk ? 0 : 1;
   } finally {
     server?.kill("SIGTERM");
   }

@@ -4,10 +4,11 @@
 // queue in the process instead of each holding a connection while waiting for the planner row.
 process.env.DB_POOL_SIZE = "3";
 import { eq } from "drizzle-orm";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { closeDb, db } from "@/db";
 import { insideTransaction, PoolInTransactionError } from "@/db/tx-guard";
 import { assemblies, attendedHours, materials, meshBlobs, partFiles, partInstances, parts, plates, printerMaterials, printers, spools, users, workshopSettings } from "@/db/schema";
+import { kickOutbox, startOutboxWorker, stopOutboxWorker } from "@/lib/server/mail/worker";
 import { startPlate } from "@/lib/server/plates";
 import { replan, sendToQueue } from "@/lib/server/queue";
 import type { SessionUser } from "@/lib/server/session";
@@ -86,5 +87,22 @@ describe("one connection per transaction", () => {
     const reasons = starts.filter((s) => s.status === "rejected").map((s) => (s as PromiseRejectedResult).reason as Error);
     expect(starts.filter((s) => s.status === "fulfilled").length).toBe(1);
     expect(reasons.every((e) => !(e.cause instanceof PoolInTransactionError) && /someone else acted on it first/.test(e.message))).toBe(true);
+  });
+
+  it("a mail kick from inside a transaction does not carry the transaction into the outbox worker", async () => {
+    const errors = vi.spyOn(console, "error").mockImplementation(() => undefined);
+    startOutboxWorker();
+    try {
+      await db().transaction(async (tx) => {
+        await tx.select({ id: users.id }).from(users).limit(1);
+        kickOutbox(); // what notify(…, tx) does after queueing a message
+      });
+      await new Promise((r) => setTimeout(r, 300));
+      // Before, the worker's round ran inside the transaction's context and its first query was refused.
+      expect(errors.mock.calls.map((c) => c.map(String).join(" "))).toEqual([]);
+    } finally {
+      stopOutboxWorker();
+      errors.mockRestore();
+    }
   });
 });
