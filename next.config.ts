@@ -32,8 +32,9 @@ const securityHeaders = [
 const nextConfig: NextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
-  // occt-import-js (the STEP tessellator) finds its .wasm beside its own script: load it from node_modules.
-  serverExternalPackages: ["mysql2", "occt-import-js"],
+  // occt-import-js (the STEP tessellator) finds its .wasm beside its own script, and piscina starts its
+  // worker threads from its own files on disk: both are loaded from node_modules.
+  serverExternalPackages: ["mysql2", "occt-import-js", "piscina"],
   allowedDevOrigins: ["127.0.0.1"],
   experimental: { authInterrupts: true },
   // `npm test` type-checks the whole tree as its own step (tsc --noEmit); the build need not repeat it.

@@ -1,6 +1,7 @@
 import { drizzle, type MySql2Database } from "drizzle-orm/mysql2";
 import mysql from "mysql2/promise";
 import { watchWrites } from "./change-watch";
+import { guardPool, guardTransactions } from "./tx-guard";
 import * as schema from "./schema";
 import { env } from "@/lib/env";
 
@@ -13,7 +14,8 @@ export function pool(): mysql.Pool {
   if (!g.__pwPool) {
     const e = env();
     // Every write through the pool moves the change counter that read caches check (db/change-watch.ts).
-    g.__pwPool = watchWrites(mysql.createPool({
+    // A pool call from inside a transaction is refused (db/tx-guard.ts): pass the transaction down.
+    g.__pwPool = guardPool(watchWrites(mysql.createPool({
       host: e.DB_HOST,
       port: e.DB_PORT,
       user: e.DB_USER,
@@ -24,13 +26,13 @@ export function pool(): mysql.Pool {
       enableKeepAlive: true,
       timezone: "Z",
       dateStrings: false,
-    }));
+    })));
   }
   return g.__pwPool;
 }
 
 export function db(): Db {
-  if (!g.__pwDb) g.__pwDb = drizzle(pool(), { schema, mode: "default" });
+  if (!g.__pwDb) g.__pwDb = guardTransactions(drizzle(pool(), { schema, mode: "default" }));
   return g.__pwDb;
 }
 

@@ -27,23 +27,47 @@ const schema = z.object({
   RESET_TTL_MINUTES: z.coerce.number().positive().default(60),
   // Payments: "fake" talks to the local payment fake (scripts/fakes.sh) through the same SDK.
   PAYMENTS_MODE: z.enum(["fake", "stripe"]).default("fake"),
-  PAYMENTS_SECRET_KEY: z.string().default("sk_test_platewright_fake"),
-  PAYMENTS_WEBHOOK_SECRET: z.string().default("whsec_platewright_fake_signing_secret"),
+  // Outside fake mode both secrets must be set, and never to the fake's public values.
+  PAYMENTS_SECRET_KEY: z.string().min(1).optional(),
+  PAYMENTS_WEBHOOK_SECRET: z.string().min(1).optional(),
   PAYMENTS_FAKE_PORT: z.coerce.number().int().positive().default(4242),
 });
 
-export type Env = z.infer<typeof schema>;
+/** The local payment fake's keys: public (they are in this repository), so valid in fake mode only. */
+export const FAKE_PAYMENTS_SECRET_KEY = "sk_test_platewright_fake";
+export const FAKE_PAYMENTS_WEBHOOK_SECRET = "whsec_platewright_fake_signing_secret";
+
+const checked = schema
+  .superRefine((v, ctx) => {
+    if (v.PAYMENTS_MODE === "fake") return;
+    const need = (key: "PAYMENTS_SECRET_KEY" | "PAYMENTS_WEBHOOK_SECRET", fake: string) => {
+      if (!v[key]) ctx.addIssue({ code: "custom", path: [key], message: `required when PAYMENTS_MODE=${v.PAYMENTS_MODE} (the provider's own value)` });
+      else if (v[key] === fake) ctx.addIssue({ code: "custom", path: [key], message: "is the local fake's public value; set the provider's own" });
+    };
+    need("PAYMENTS_SECRET_KEY", FAKE_PAYMENTS_SECRET_KEY);
+    need("PAYMENTS_WEBHOOK_SECRET", FAKE_PAYMENTS_WEBHOOK_SECRET);
+  })
+  .transform((v) => ({
+    ...v,
+    PAYMENTS_SECRET_KEY: v.PAYMENTS_SECRET_KEY ?? FAKE_PAYMENTS_SECRET_KEY,
+    PAYMENTS_WEBHOOK_SECRET: v.PAYMENTS_WEBHOOK_SECRET ?? FAKE_PAYMENTS_WEBHOOK_SECRET,
+  }));
+
+export type Env = z.infer<typeof checked>;
+
+/** Parses settings from `source`; throws with every problem named. */
+export function parseEnv(source: Record<string, string | undefined>): Env {
+  const parsed = checked.safeParse(source);
+  if (!parsed.success) {
+    const issues = parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ");
+    throw new Error(`Invalid environment: ${issues}`);
+  }
+  return parsed.data;
+}
 
 let cached: Env | undefined;
 
 export function env(): Env {
-  if (!cached) {
-    const parsed = schema.safeParse(process.env);
-    if (!parsed.success) {
-      const issues = parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ");
-      throw new Error(`Invalid environment: ${issues}`);
-    }
-    cached = parsed.data;
-  }
+  cached ??= parseEnv(process.env);
   return cached;
 }

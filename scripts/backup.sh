@@ -9,6 +9,7 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 export PATH="$PATH:/usr/sbin"
+. scripts/read-env.sh
 
 DB_HOST=${DB_HOST:-127.0.0.1}
 DB_PORT=${DB_PORT:-3307}
@@ -27,7 +28,7 @@ create() {
     --hex-blob --default-character-set=utf8mb4 "$DB_NAME" > "$out/db.sql.partial"
   mv "$out/db.sql.partial" "$out/db.sql"
   if [ -d "$STORAGE_DIR" ]; then
-    tar -C "$STORAGE_DIR" -cf "$out/files.tar" --exclude='./tmp' .
+    tar -C "$STORAGE_DIR" -cf "$out/files.tar" --exclude='./.tmp' .
   else
     tar -cf "$out/files.tar" -T /dev/null
   fi
@@ -35,7 +36,7 @@ create() {
     echo "database $DB_NAME"
     echo "created $(date -u +%FT%TZ)"
     mariadb "${client_args[@]}" -N -e "SELECT CONCAT('rows ', table_name, ' ', table_rows) FROM information_schema.tables WHERE table_schema = '$DB_NAME'" 
-    (cd "$STORAGE_DIR" 2>/dev/null && find . -type f ! -path './tmp/*' -print0 | sort -z | xargs -0 -r sha256sum | sed 's/^/file /') || true
+    (cd "$STORAGE_DIR" 2>/dev/null && find . -type f ! -path './.tmp/*' -print0 | sort -z | xargs -0 -r sha256sum | sed 's/^/file /') || true
   } > "$out/manifest.txt"
   echo "backup: wrote $out"
 }

@@ -6,6 +6,7 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 ROOT=$(pwd)
+. scripts/read-env.sh
 
 DB_PORT=${DB_PORT:-3307}
 DB_NAME=${DB_NAME:-platewright}

@@ -24,7 +24,9 @@ fi
 # A signing secret for sessions, made once per checkout and kept out of git.
 mkdir -p .data
 if [ -z "${NEXTAUTH_SECRET:-}" ]; then
-  [ -s .data/nextauth-secret ] || node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("base64url"))' > .data/nextauth-secret
+  # Readable by its owner only (0600), also when it was made before this rule.
+  [ -s .data/nextauth-secret ] || (umask 077 && node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("base64url"))' > .data/nextauth-secret)
+  chmod 600 .data/nextauth-secret
   NEXTAUTH_SECRET=$(cat .data/nextauth-secret)
   export NEXTAUTH_SECRET
 fi

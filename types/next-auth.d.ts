@@ -10,5 +10,7 @@ declare module "next-auth/jwt" {
   interface JWT {
     uid?: number;
     role?: Role;
+    /** The account's session version when it signed in (see lib/server/session-version.ts). */
+    sv?: number;
   }
 }

@@ -13,6 +13,8 @@ export const users = mysqlTable(
     passwordHash: varchar("password_hash", { length: 100 }).notNull(),
     role: mysqlEnum("role", roles).notNull().default("member"),
     active: int("active").notNull().default(1),
+    /** Sessions carry the version they were signed in under; bumping it ends every one of them. */
+    sessionVersion: int("session_version").notNull().default(0),
     createdAt: datetime("created_at", { mode: "date", fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
     updatedAt: datetime("updated_at", { mode: "date", fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
   },

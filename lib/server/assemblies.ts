@@ -22,6 +22,8 @@ export interface AccessInfo {
   ownerId: number;
   /** The whole tree the assembly belongs to, for ancestors and subtrees. */
   tree: TreeNode[];
+  /** For access through a share: the highest shared node; nothing above it is shown to this viewer. */
+  sharedTop?: number;
 }
 
 export const canEdit = (a: Access) => a === "owner" || a === "edit";
@@ -39,19 +41,29 @@ export async function accessTo(user: SessionUser, assemblyId: number): Promise<A
     .from(assemblies)
     .where(eq(assemblies.rootId, rootId));
   let access: Access | null = null;
+  let sharedTop: number | undefined;
   if (row.ownerId === user.id) access = "owner";
   else if (user.role !== "member") access = "workshop";
   else {
     const chain = ancestors(tree, assemblyId).map((n) => n.id);
     const shares = await d
-      .select({ access: assemblyShares.access })
+      .select({ access: assemblyShares.access, assemblyId: assemblyShares.assemblyId })
       .from(assemblyShares)
       .where(and(eq(assemblyShares.userId, user.id), inArray(assemblyShares.assemblyId, chain)));
     if (shares.some((s) => s.access === "edit")) access = "edit";
     else if (shares.length) access = "read";
+    const shared = new Set(shares.map((s) => s.assemblyId));
+    sharedTop = [...chain].reverse().find((n) => shared.has(n));
   }
   if (!access) throw hidden();
-  return { access, rootId, ownerId: row.ownerId, tree };
+  return { access, rootId, ownerId: row.ownerId, tree, sharedTop };
+}
+
+/** The breadcrumb to a node, root first, cut at the highest node this viewer was given (a share's parents stay unnamed). */
+export function visibleTrail(info: AccessInfo, id: number): { id: number; name: string }[] {
+  const up = ancestors(info.tree, id);
+  const cut = info.sharedTop === undefined ? up.length : up.findIndex((n) => n.id === info.sharedTop) + 1;
+  return up.slice(0, cut > 0 ? cut : 1).reverse().map((n) => ({ id: n.id, name: n.name }));
 }
 
 /** Refuses with 403 when the caller may read but not change (they know it exists). */
@@ -131,15 +143,11 @@ export async function progressOf(ids: number[]): Promise<{ needed: number; done:
 
 export async function createAssembly(user: SessionUser, input: AssemblyInput): Promise<{ id: number }> {
   if (user.role !== "member") throw new AppError("forbidden", "Assemblies belong to members; the workshop reads them.");
-  const d = db();
-  return d.transaction(async (tx) => {
-    let rootId: number | null = null;
-    let ownerId = user.id;
-    if (input.parentId) {
-      const a = await requireEdit(user, input.parentId);
-      rootId = a.rootId;
-      ownerId = a.ownerId; // a sub-assembly belongs to the tree's owner, whoever adds it
-    }
+  // The access check reads through the pool, so it runs before the transaction (one connection each).
+  const parent = input.parentId ? await requireEdit(user, input.parentId) : null;
+  return db().transaction(async (tx) => {
+    const rootId: number | null = parent ? parent.rootId : null;
+    const ownerId = parent ? parent.ownerId : user.id; // a sub-assembly belongs to the tree's owner, whoever adds it
     const [res] = await tx
       .insert(assemblies)
       .values({ ownerId, parentId: input.parentId ?? null, rootId, name: input.name, description: input.description, targetDate: input.targetDate ?? null })

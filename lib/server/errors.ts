@@ -2,7 +2,7 @@ import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError } from "zod";
 
-export type ErrorCode = "bad_request" | "unauthenticated" | "forbidden" | "not_found" | "conflict" | "too_large" | "invalid" | "unavailable";
+export type ErrorCode = "bad_request" | "unauthenticated" | "forbidden" | "not_found" | "conflict" | "too_large" | "invalid" | "too_many" | "unavailable" | "cross_origin";
 
 const statusOf: Record<ErrorCode, number> = {
   bad_request: 400,
@@ -12,7 +12,9 @@ const statusOf: Record<ErrorCode, number> = {
   conflict: 409,
   too_large: 413,
   invalid: 422,
+  too_many: 429,
   unavailable: 503,
+  cross_origin: 403,
 };
 
 /** An error the user may see: its message is safe to show. */
@@ -21,6 +23,8 @@ export class AppError extends Error {
     public readonly code: ErrorCode,
     message: string,
     public readonly fieldErrors?: Record<string, string[]>,
+    /** Seconds, sent as Retry-After (with too_many and unavailable). */
+    public readonly retryAfterS?: number,
   ) {
     super(message);
     this.name = "AppError";
@@ -51,10 +55,46 @@ export function isDbDown(e: unknown): boolean {
   return false;
 }
 
+/** The database error code of `e` or of any error it wraps (drizzle puts the driver's error in `cause`). */
+export function dbErrorCode(e: unknown): string | null {
+  for (let cur: unknown = e, depth = 0; cur && depth < 5; depth++) {
+    const code = (cur as { code?: unknown }).code;
+    if (typeof code === "string" && (code.startsWith("ER_") || DB_DOWN_CODES.has(code))) return code;
+    cur = (cur as { cause?: unknown }).cause;
+  }
+  return null;
+}
+
+export type DbErrorKind = "down" | "duplicate" | "busy" | "other";
+
+/** What kind of database failure `e` is, looking through wrapped causes. */
+export function dbErrorKind(e: unknown): DbErrorKind | null {
+  const code = dbErrorCode(e);
+  if (!code) return null;
+  if (DB_DOWN_CODES.has(code)) return "down";
+  if (code === "ER_DUP_ENTRY") return "duplicate";
+  if (code === "ER_LOCK_WAIT_TIMEOUT" || code === "ER_LOCK_DEADLOCK") return "busy";
+  return "other";
+}
+
+/** Plain words for a database failure, never the SQL text (which names tables, columns and values). */
+export function dbErrorMessage(kind: DbErrorKind): string {
+  switch (kind) {
+    case "down":
+      return "The database is not reachable right now. Try again shortly.";
+    case "busy":
+      return "The workshop's data is busy with another change. Try again in a moment.";
+    case "duplicate":
+      return "That already exists.";
+    default:
+      return "Something went wrong on our side.";
+  }
+}
+
 /** Maps any thrown value to a JSON response; unknown errors are logged and answered generically. */
 export function errorResponse(e: unknown): NextResponse {
   if (e instanceof AppError) {
-    return NextResponse.json({ error: e.message, code: e.code, fieldErrors: e.fieldErrors }, { status: e.status });
+    return NextResponse.json({ error: e.message, code: e.code, fieldErrors: e.fieldErrors }, { status: e.status, headers: e.retryAfterS ? { "Retry-After": String(e.retryAfterS) } : undefined });
   }
   if (e instanceof ZodError) {
     return NextResponse.json(
@@ -62,9 +102,9 @@ export function errorResponse(e: unknown): NextResponse {
       { status: 422 },
     );
   }
-  if (isDbDown(e)) {
-    return NextResponse.json({ error: "The database is not reachable right now. Try again shortly.", code: "unavailable" }, { status: 503 });
-  }
+  const kind = dbErrorKind(e);
+  if (kind === "down") return NextResponse.json({ error: dbErrorMessage(kind), code: "unavailable" }, { status: 503 });
+  if (kind === "busy") return NextResponse.json({ error: dbErrorMessage(kind), code: "unavailable" }, { status: 503, headers: { "Retry-After": "2" } });
   console.error("[platewright] unexpected error", e);
   return NextResponse.json({ error: "Something went wrong on our side.", code: "internal" }, { status: 500 });
 }

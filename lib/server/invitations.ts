@@ -10,6 +10,8 @@ import type { AcceptInviteInput, InviteInput, PersonUpdateInput } from "@/lib/va
 import { AppError } from "./errors";
 import { appUrl, notify } from "./mail";
 import type { SessionUser } from "./session";
+import { assertPasswordStrong } from "./password-policy";
+import { endAllSessions } from "./session-version";
 
 /** 32 random bytes for the link; only their SHA-256 is stored, so a database leak opens no doors. */
 export function newToken(): { token: string; hash: string } {
@@ -84,6 +86,7 @@ const refusal: Record<Exclude<LinkState["state"], "valid">, string> = {
 
 /** Sets name and password and creates the member, once: the row is locked and marked used in one transaction. */
 export async function acceptInvitation(input: AcceptInviteInput): Promise<{ email: string }> {
+  assertPasswordStrong(input.password, [input.name]);
   const passwordHash = await bcrypt.hash(input.password, 10);
   return db().transaction(async (tx) => {
     const [inv] = await tx
@@ -131,6 +134,7 @@ export async function updatePerson(user: SessionUser, id: number, input: PersonU
   if (input.active !== undefined) set.active = input.active ? 1 : 0;
   const [res] = await db().update(users).set(set).where(eq(users.id, id));
   if (res.affectedRows === 0) throw new AppError("not_found", "No person with that number.");
+  if (input.active === false) await endAllSessions(id); // reactivating later does not revive old sessions
   const person = (await listPeople(user)).find((p) => p.id === id);
   if (!person) throw new AppError("not_found", "No person with that number.");
   return person;

@@ -6,6 +6,7 @@ import { cautionsFor, type Caution } from "@/lib/estimate";
 import { can } from "@/lib/permissions";
 import type { MaterialInput, MaterialUpdateInput, SpoolGramsInput, SpoolInput } from "@/lib/validation/materials";
 import { AppError } from "./errors";
+import type { Executor } from "./mail";
 import type { SessionUser } from "./session";
 
 /**
@@ -216,8 +217,8 @@ export async function loadSpool(user: SessionUser, spoolId: number, printerId: n
  * May a plate needing `grams` start on this printer's loaded spool? Refuses with a reason when no
  * spool is loaded, it is another material, or it holds less than the plate plus SPOOL_MARGIN.
  */
-export async function assertSpoolHolds(printerId: number, grams: number, type?: MaterialType): Promise<{ spoolId: number; gramsRemaining: number }> {
-  const [s] = await db()
+export async function assertSpoolHolds(printerId: number, grams: number, type?: MaterialType, d: Executor = db()): Promise<{ spoolId: number; gramsRemaining: number }> {
+  const [s] = await d
     .select({ id: spools.id, label: spools.label, grams: spools.gramsRemaining, type: materials.type })
     .from(spools)
     .innerJoin(materials, eq(materials.id, spools.materialId))

@@ -4,7 +4,7 @@ import { db } from "@/db";
 import { assemblies, assemblyShares, partFiles, partInstances, parts, statusEvents, users } from "@/db/schema";
 import { allowedTargets, fitPrinters, planTransition, type FitResult, type PartStatus } from "@/lib/status";
 import type { PartInput, PartPatch, StatusChangeInput } from "@/lib/validation/assemblies";
-import { accessTo, ancestors, canEdit, itemsOf, listShares, requireEdit, subtreeIds, type Access } from "./assemblies";
+import { accessTo, canEdit, itemsOf, listShares, requireEdit, subtreeIds, visibleTrail, type Access } from "./assemblies";
 import { AppError } from "./errors";
 import { listPrinterBeds } from "./printers";
 import type { SessionUser } from "./session";
@@ -203,7 +203,7 @@ export async function getPartDetail(user: SessionUser, partId: number) {
     part,
     access,
     canEdit: editable,
-    trail: ancestors(info.tree, assemblyId).reverse().map((n) => ({ id: n.id, name: n.name })),
+    trail: visibleTrail(info, assemblyId),
     current,
     files,
     instances: instances.map((i) => ({ ...i, next: allowedTargets(i.status, user.role, editable) })),
@@ -290,7 +290,7 @@ export async function getAssemblyDetail(user: SessionUser, id: number) {
     assembly: head,
     access: info.access,
     canEdit: canEdit(info.access),
-    trail: ancestors(info.tree, id).reverse().map((n) => ({ id: n.id, name: n.name })),
+    trail: visibleTrail(info, id),
     nodes,
     parts: partsOut,
     items: itemRows,

@@ -8,6 +8,8 @@ import type { ResetConfirmInput } from "@/lib/validation/mail";
 import { AppError } from "./errors";
 import { hashToken, newToken, type LinkState } from "./invitations";
 import { appUrl, notify } from "./mail";
+import { assertPasswordStrong } from "./password-policy";
+import { endAllSessions } from "./session-version";
 
 /** At most this many open links per account, so the form cannot be used to flood someone's inbox. */
 const MAX_OPEN = 3;
@@ -48,6 +50,8 @@ export async function resetState(token: string): Promise<LinkState> {
 
 /** Sets the new password once; every other open link of the account stops working too. */
 export async function confirmPasswordReset(input: ResetConfirmInput): Promise<{ email: string }> {
+  const [who] = await db().select({ email: users.email, name: users.name }).from(passwordResets).innerJoin(users, eq(users.id, passwordResets.userId)).where(eq(passwordResets.tokenHash, hashToken(input.token))).limit(1);
+  assertPasswordStrong(input.password, who ? [who.email, who.name] : []);
   const passwordHash = await bcrypt.hash(input.password, 10);
   return db().transaction(async (tx) => {
     const [r] = await tx
@@ -62,6 +66,7 @@ export async function confirmPasswordReset(input: ResetConfirmInput): Promise<{ 
     const [u] = await tx.select({ email: users.email }).from(users).where(eq(users.id, r.userId)).limit(1);
     if (!u) throw new AppError("conflict", "This reset link is not valid. Ask for a new one.");
     await tx.update(users).set({ passwordHash, updatedAt: new Date() }).where(eq(users.id, r.userId));
+    await endAllSessions(r.userId, tx); // sessions signed in with the old password end here
     await tx.update(passwordResets).set({ usedAt: new Date() }).where(and(eq(passwordResets.userId, r.userId), isNull(passwordResets.usedAt)));
     return { email: u.email };
   });

@@ -2,10 +2,10 @@ import "server-only";
 import { eq } from "drizzle-orm";
 import Stripe from "stripe";
 import { db } from "@/db";
-import { payments, users, workshopSettings } from "@/db/schema";
+import { payments, workshopSettings } from "@/db/schema";
 import { env } from "@/lib/env";
 import { can } from "@/lib/permissions";
-import { AppError } from "./errors";
+import { AppError, dbErrorKind } from "./errors";
 import { memberBalance } from "./ledger";
 import { appUrl } from "./mail";
 import type { SessionUser } from "./session";
@@ -59,51 +59,46 @@ export async function createCheckout(user: SessionUser): Promise<{ url: string; 
 type SessionLike = Pick<Stripe.Checkout.Session, "id" | "amount_total" | "currency" | "payment_status" | "metadata" | "client_reference_id">;
 
 /**
- * Marks the session's payment paid, once. The row is locked; a replayed event, or the webhook and
- * the member's return arriving together, find it paid and change nothing.
+ * Marks the session's payment paid, once, when it is one this app created and its figures are the
+ * ones created: same member, same amount, same currency. The row is locked; a replayed event, or the
+ * webhook and the member's return arriving together, find it paid and change nothing. A session this
+ * app never created, or one whose figures differ, is recorded nowhere (it is logged for an admin):
+ * a signed event is trusted for what happened to a checkout, never for who owes what.
  */
-export async function recordPaid(session: SessionLike, eventId: string | null): Promise<{ recorded: boolean }> {
+export async function recordPaid(session: SessionLike, eventId: string | null): Promise<{ recorded: boolean; refused?: string }> {
   if (session.payment_status !== "paid") return { recorded: false };
-  const memberId = Number(session.metadata?.member_id ?? session.client_reference_id);
+  const refuse = (why: string) => {
+    console.error(`[platewright] payment event ${eventId ?? "(return)"} for checkout ${session.id} not recorded: ${why}`);
+    return { recorded: false, refused: why };
+  };
+  const amount = session.amount_total;
+  if (typeof amount !== "number" || !Number.isSafeInteger(amount) || amount <= 0) return refuse(`the amount ${String(amount)} is not a positive whole number`);
   try {
     return await db().transaction(async (tx) => {
       const [row] = await tx
-        .select({ id: payments.id, status: payments.status })
+        .select({ id: payments.id, status: payments.status, memberId: payments.memberId, amountCents: payments.amountCents, currency: payments.currency })
         .from(payments)
         .where(eq(payments.providerSessionId, session.id))
         .for("update")
         .limit(1);
-      if (row?.status === "paid") return { recorded: false };
-      if (row) {
-        await tx
-          .update(payments)
-          .set({ status: "paid", paidAt: new Date(), providerEventId: eventId, amountCents: session.amount_total ?? 0 })
-          .where(eq(payments.id, row.id));
-        return { recorded: true };
-      }
-      // A session we did not see start (made before a crash): trust the signed event's member.
-      const [member] = await tx.select({ id: users.id }).from(users).where(eq(users.id, memberId)).limit(1);
-      if (!member) throw new AppError("bad_request", "The payment names no known member.");
-      await tx.insert(payments).values({
-        memberId,
-        amountCents: session.amount_total ?? 0,
-        currency: (session.currency ?? "eur").toUpperCase(),
-        providerSessionId: session.id,
-        providerEventId: eventId,
-        status: "paid",
-        paidAt: new Date(),
-      });
+      if (!row) return refuse("no checkout with this id was started here");
+      if (row.status === "paid") return { recorded: false };
+      const named = session.metadata?.member_id ?? session.client_reference_id;
+      if (named != null && Number(named) !== row.memberId) return refuse(`it names member ${named}, the checkout was for member ${row.memberId}`);
+      if (amount !== row.amountCents) return refuse(`it says ${amount}, the checkout was for ${row.amountCents}`);
+      if ((session.currency ?? "").toUpperCase() !== row.currency.toUpperCase()) return refuse(`it is in ${session.currency ?? "no currency"}, the checkout was in ${row.currency}`);
+      await tx.update(payments).set({ status: "paid", paidAt: new Date(), providerEventId: eventId }).where(eq(payments.id, row.id));
       return { recorded: true };
     });
   } catch (e) {
-    // Two first deliveries raced to insert: the other one recorded it.
-    if ((e as { code?: string }).code === "ER_DUP_ENTRY") return { recorded: false };
+    // Two deliveries raced (drizzle wraps the driver's error: the code is on its cause).
+    if (dbErrorKind(e) === "duplicate") return { recorded: false };
     throw e;
   }
 }
 
 /** Verifies the signature with the signing secret, then records completed checkouts. */
-export async function handleWebhook(rawBody: string, signature: string | null): Promise<{ type: string; recorded: boolean }> {
+export async function handleWebhook(rawBody: string, signature: string | null): Promise<{ type: string; recorded: boolean; refused?: string }> {
   if (!signature) throw new AppError("bad_request", "Missing signature header.");
   let event: Stripe.Event;
   try {

@@ -79,7 +79,7 @@ export async function planPrinters(d: Executor = db()): Promise<PlanPrinter[]> {
     .from(spools)
     .innerJoin(materials, eq(materials.id, spools.materialId))
     .where(sql`${spools.loadedPrinterId} IS NOT NULL`);
-  const cal = rows.length ? await calibrationFor(rows.map((r) => r.id)) : new Map<number, CalibrationFactor>();
+  const cal = rows.length ? await calibrationFor(rows.map((r) => r.id), undefined, d) : new Map<number, CalibrationFactor>();
   return rows.map((r) => {
     const l = loaded.find((s) => s.printerId === r.id);
     return {

@@ -176,7 +176,7 @@ export async function startPlate(user: SessionUser, id: number, input: PlateStar
     await tx.select({ id: printers.id }).from(printers).where(eq(printers.id, p.printerId)).for("update");
     const [busy] = await tx.select({ id: plates.id }).from(plates).where(and(eq(plates.printerId, p.printerId), eq(plates.status, "printing"), ne(plates.id, id)));
     if (busy) throw new AppError("conflict", `The printer is still printing ${plateLabel(busy.id)}. Finish or fail it first.`);
-    await assertSpoolHolds(p.printerId, p.estimatedGrams, p.material as MaterialType);
+    await assertSpoolHolds(p.printerId, p.estimatedGrams, p.material as MaterialType, tx);
     const old = p.quote as PlateQuote;
     const price = await currentPricing(tx, p.printerId, p.material as MaterialType);
     const quote = makeQuote(old.items, price.printer, price.material, price.feeCents, price.currency);

@@ -6,6 +6,7 @@ import { calibrationFactor, DEFAULT_CALIBRATION_WINDOW, MATERIALS, MATERIAL_KEYS
 import { can } from "@/lib/permissions";
 import type { FinishedPlateInput, PrinterInput, PrinterStateInput, PrinterUpdateInput } from "@/lib/validation/printers";
 import { AppError } from "./errors";
+import type { Executor } from "./mail";
 import type { SessionUser } from "./session";
 
 export interface PrinterBed {
@@ -92,13 +93,13 @@ export interface Printer {
   calibration: CalibrationFactor;
 }
 
-/** Calibration per printer from its last finished plates (median of actual / estimated). */
-export async function calibrationFor(printerIds: number[], lastN = DEFAULT_CALIBRATION_WINDOW): Promise<Map<number, CalibrationFactor>> {
+/** Calibration per printer from its last finished plates (median of actual / estimated), read through `d` (a transaction passes itself). */
+export async function calibrationFor(printerIds: number[], lastN = DEFAULT_CALIBRATION_WINDOW, d: Executor = db()): Promise<Map<number, CalibrationFactor>> {
   const out = new Map<number, CalibrationFactor>();
   for (const id of printerIds) {
     // Newest first from the database, then oldest first as calibrationFactor expects. Twice the
     // window so plates with unusable figures do not shrink it.
-    const rows = await db()
+    const rows = await d
       .select({
         estimatedMinutes: printHistory.estimatedMinutes,
         actualMinutes: printHistory.actualMinutes,

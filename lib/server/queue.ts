@@ -107,13 +107,35 @@ export async function setPriority(user: SessionUser, entryId: number, input: Que
   return { version: input.version + 1 };
 }
 
+type ReplanResult = { plates: number; placed: number; unplaced: Unplaced[]; metrics: PlanMetrics };
+
+/** This process's re-plans: the one running (or last run) and the one waiting behind it, if any. */
+const replans = ((globalThis as unknown as { __pwReplans?: { tail: Promise<unknown>; waiting: Promise<ReplanResult> | null } }).__pwReplans ??= { tail: Promise.resolve(), waiting: null });
+
 /**
  * Re-plan: plates that have not started are dropped and everything queued or on them is planned
- * again with lib/plan. Re-plans are serialised on the planner row; the unique active-instance
- * index makes a second live plate for any instance impossible even so.
+ * again with lib/plan. Re-plans queue in this process without holding a database connection: one
+ * runs at a time, and every request arriving while one runs shares the single run queued behind it
+ * (it starts after they arrived, so it plans what each of them would have). The planner row lock
+ * still serialises runs across processes; the unique active-instance index makes a second live
+ * plate for any instance impossible even so.
  */
-export async function replan(user: SessionUser, now = new Date()): Promise<{ plates: number; placed: number; unplaced: Unplaced[]; metrics: PlanMetrics }> {
+export async function replan(user: SessionUser, now = new Date()): Promise<ReplanResult> {
   if (!can(user.role, "queue:manage")) throw new AppError("forbidden", "Only operators and admins re-plan.");
+  if (replans.waiting) return replans.waiting;
+  const run = replans.tail.then(
+    () => undefined,
+    () => undefined,
+  ).then(() => {
+    replans.waiting = null;
+    return replanNow(user, now);
+  });
+  replans.waiting = run;
+  replans.tail = run;
+  return run;
+}
+
+async function replanNow(user: SessionUser, now: Date): Promise<ReplanResult> {
   await db().insert(plannerState).ignore().values({ id: 1 });
   return db().transaction(async (tx) => {
     await tx.select({ id: plannerState.id }).from(plannerState).where(eq(plannerState.id, 1)).for("update");

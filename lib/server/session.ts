@@ -24,14 +24,14 @@ export interface SessionUser {
  * on every use; at most TOKEN_CACHE_MAX entries (oldest dropped first).
  */
 const TOKEN_CACHE_MAX = 1000;
-const tokenCache = new Map<string, { uid: number; exp: number }>();
+const tokenCache = new Map<string, { uid: number; sv: number; exp: number }>();
 
 /**
- * The account id in the request's session cookie, or null. This is what `getServerSession` reads
+ * The account id and session version in the request's session cookie, or null. This is what `getServerSession` reads
  * in a server component or route handler (its refreshed cookie is thrown away there), without
  * running the whole session endpoint for it.
  */
-async function sessionAccountId(): Promise<number | null> {
+async function sessionAccount(): Promise<{ uid: number; sv: number } | null> {
   const secureCookie = authOptions.useSecureCookies ?? process.env.NEXTAUTH_URL?.startsWith("https://") ?? false;
   const cookieName = authOptions.cookies?.sessionToken?.name ?? `${secureCookie ? "__Secure-" : ""}next-auth.session-token`;
   // Cookies only (joined when the session was split into chunks); an Authorization header is not a session.
@@ -40,7 +40,7 @@ async function sessionAccountId(): Promise<number | null> {
   const now = Date.now() / 1000;
   const hit = tokenCache.get(raw);
   if (hit) {
-    if (hit.exp > now) return hit.uid;
+    if (hit.exp > now) return hit;
     tokenCache.delete(raw);
     return null;
   }
@@ -49,25 +49,29 @@ async function sessionAccountId(): Promise<number | null> {
   const payload = await decode({ token: raw, secret }).catch(() => null);
   const uid = Number(payload?.uid);
   const exp = Number(payload?.exp);
-  if (!Number.isInteger(uid) || uid <= 0 || !Number.isFinite(exp) || exp <= now) return null;
+  // A cookie without a session version (made before versions existed) is not a session.
+  const sv = typeof payload?.sv === "number" ? payload.sv : NaN;
+  if (!Number.isInteger(uid) || uid <= 0 || !Number.isFinite(exp) || exp <= now || !Number.isInteger(sv)) return null;
   if (tokenCache.size >= TOKEN_CACHE_MAX) tokenCache.delete(tokenCache.keys().next().value!);
-  tokenCache.set(raw, { uid, exp });
-  return uid;
+  const entry = { uid, sv, exp };
+  tokenCache.set(raw, entry);
+  return entry;
 }
 
 /**
  * The signed-in user, re-read from the database on every request: the role comes from the
- * users table, never from anything the client sent, and a deactivated account stops at once.
+ * users table, never from anything the client sent; a deactivated account stops at once, and so does
+ * a session signed in under an older session version (signed out, password reset, deactivated).
  */
 export const currentUser = cache(async (): Promise<SessionUser | null> => {
-  const id = await sessionAccountId();
-  if (!id) return null;
+  const s = await sessionAccount();
+  if (!s) return null;
   const [row] = await db()
-    .select({ id: users.id, email: users.email, name: users.name, role: users.role, active: users.active })
+    .select({ id: users.id, email: users.email, name: users.name, role: users.role, active: users.active, sv: users.sessionVersion })
     .from(users)
-    .where(eq(users.id, id))
+    .where(eq(users.id, s.uid))
     .limit(1);
-  if (!row || !row.active) return null;
+  if (!row || !row.active || row.sv !== s.sv) return null;
   return { id: row.id, email: row.email, name: row.name, role: row.role };
 });
 

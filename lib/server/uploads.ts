@@ -6,13 +6,15 @@ import { eq, sql } from "drizzle-orm";
 import { db } from "@/db";
 import { meshBlobs, partFiles, parts } from "@/db/schema";
 import { env } from "@/lib/env";
-import { analysisToJson, isMeshReadError, write3mf, type AnalysisJson } from "@/lib/mesh";
+import { analysisToJson, isMeshReadError, isStep, write3mf, type AnalysisJson } from "@/lib/mesh";
 import { analyzeFile } from "@/lib/mesh-node/step";
 import type { UploadQuery } from "@/lib/validation/assemblies";
 import { forgetUnusedBlobs, withBlobsHeld } from "./blobs";
 import { AppError } from "./errors";
+import { analyzeInWorker, inflateCapFor } from "./mesh-pool/pool";
 import { partAccess, requirePartEdit } from "./parts";
 import type { SessionUser } from "./session";
+import { uploadBudget } from "./upload-budget";
 import { blobStore, tempDir } from "./storage";
 
 export interface UploadResult {
@@ -33,7 +35,7 @@ export function uploadLimitBytes(): number {
 const tooLarge = (limit: number) => new AppError("too_large", `The file is larger than the upload limit of ${Math.round(limit / 1024 / 1024)} MB.`);
 
 /** Streams a body to a temporary file while hashing and counting; stops at the limit. */
-async function spool(body: ReadableStream<Uint8Array>, temp: string, limit: number): Promise<{ sha256: string; size: number }> {
+async function spool(body: ReadableStream<Uint8Array>, temp: string, limit: number, counted: (bytes: number) => void): Promise<{ sha256: string; size: number }> {
   const hash = createHash("sha256");
   const fh = await open(temp, "wx");
   const reader = body.getReader();
@@ -43,6 +45,7 @@ async function spool(body: ReadableStream<Uint8Array>, temp: string, limit: numb
       const { done, value } = await reader.read();
       if (done) break;
       size += value.byteLength;
+      counted(size);
       if (size > limit) {
         await reader.cancel().catch(() => undefined);
         throw tooLarge(limit);
@@ -72,6 +75,17 @@ export async function receiveUpload(
   const limit = opts.limitBytes ?? uploadLimitBytes();
   if (opts.declaredLength !== undefined && opts.declaredLength > limit) throw tooLarge(limit);
   if (!body) throw new AppError("bad_request", "Send the file's bytes as the request body.");
+  const slot = uploadBudget().take(user.id);
+  if (!slot.ok) throw new AppError("too_many", `Too many uploads: ${slot.reason}. Try again in ${slot.retryAfterS} s.`, undefined, slot.retryAfterS);
+  let received = 0;
+  try {
+    return await receiveWithinBudget(user, partId, body, q, limit, (n) => (received = n));
+  } finally {
+    slot.finish(received);
+  }
+}
+
+async function receiveWithinBudget(user: SessionUser, partId: number, body: ReadableStream<Uint8Array>, q: UploadQuery, limit: number, counted: (bytes: number) => void): Promise<UploadResult> {
   await mkdir(tempDir(), { recursive: true });
   const temp = path.join(tempDir(), `${randomUUID()}.upload`);
   const store = blobStore();
@@ -81,27 +95,41 @@ export async function receiveUpload(
   let sizeBytes = 0;
   let meshBlob: { sha256: string; sizeBytes: number } | undefined;
   try {
-    const spooled = await spool(body, temp, limit);
+    const spooled = await spool(body, temp, limit, counted);
     sha256 = spooled.sha256;
     sizeBytes = spooled.size;
     const bytes = new Uint8Array(await readFile(temp));
-    let analysed;
-    try {
-      analysed = await analyzeFile(bytes, { filename: q.name, units: q.units });
-    } catch (e) {
-      if (isMeshReadError(e)) throw new AppError("invalid", `${q.name} could not be read: ${e.message}.`, { file: [e.message] });
-      throw e;
+    let json: AnalysisJson;
+    let warnings: string[];
+    let mesh: Uint8Array | undefined;
+    if (isStep(bytes)) {
+      // STEP: tessellated in a worker thread of its own with a time limit (lib/mesh-node/step.ts). The
+      // file is kept as uploaded (the source) beside a 3MF of its tessellation, one object per body:
+      // that mesh is what the viewer, plates and exports read.
+      let analysed;
+      try {
+        analysed = await analyzeFile(bytes, { filename: q.name, units: q.units });
+      } catch (e) {
+        if (isMeshReadError(e)) throw new AppError("invalid", `${q.name} could not be read: ${e.message}.`, { file: [e.message] });
+        throw e;
+      }
+      json = analysisToJson(q.name, analysed.format, analysed.analysis);
+      warnings = analysed.warnings;
+      const soup = analysed.soup;
+      mesh = soup
+        ? write3mf((analysed.parts ?? [{ objectId: "1", name: undefined, firstTriangle: 0, triangleCount: soup.positions.length / 9 }]).map((p) => ({
+            name: p.name ?? `body ${p.objectId}`,
+            mesh: { positions: soup.positions.subarray(9 * p.firstTriangle, 9 * (p.firstTriangle + p.triangleCount)) },
+          })))
+        : undefined;
+    } else {
+      // STL and 3MF: read and analysed in a worker thread (the request thread stays free), with the
+      // inflate cap scaled to the file's size so a small package cannot expand to hundreds of megabytes.
+      const analysed = await analyzeInWorker({ path: temp, filename: q.name, units: q.units, maxUncompressedBytes: inflateCapFor(spooled.size) });
+      if (!analysed.ok) throw new AppError("invalid", `${q.name} could not be read: ${analysed.message}.`, { file: [analysed.message] });
+      json = analysed.json;
+      warnings = analysed.warnings;
     }
-    const json = analysisToJson(q.name, analysed.format, analysed.analysis);
-    // A STEP file is kept as uploaded (the source) beside a 3MF of its tessellation, one object per
-    // body: that mesh is what the viewer, plates and exports read.
-    const soup = analysed.soup;
-    const mesh = analysed.format === "step" && soup
-      ? write3mf((analysed.parts ?? [{ objectId: "1", name: undefined, firstTriangle: 0, triangleCount: soup.positions.length / 9 }]).map((p) => ({
-          name: p.name ?? `body ${p.objectId}`,
-          mesh: { positions: soup.positions.subarray(9 * p.firstTriangle, 9 * (p.firstTriangle + p.triangleCount)) },
-        })))
-      : undefined;
     const meshSha = mesh ? createHash("sha256").update(mesh).digest("hex") : sha256;
     if (mesh) meshBlob = { sha256: meshSha, sizeBytes: mesh.byteLength };
     stored = await store.putFile(sha256, temp);
@@ -134,7 +162,7 @@ export async function receiveUpload(
       await tx.update(parts).set({ currentFileId: res!.id, version: sql`${parts.version} + 1`, updatedAt: new Date() }).where(eq(parts.id, partId));
       return { fileId: res!.id, versionNo };
     });
-    return { ...row, sha256, sizeBytes: spooled.size, alreadyStored: !stored && rewritten.size === 0, analysis: json, warnings: analysed.warnings };
+    return { ...row, sha256, sizeBytes: spooled.size, alreadyStored: !stored && rewritten.size === 0, analysis: json, warnings };
   } catch (e) {
     // Bytes this call stored, and that no recorded file refers to, are taken back out (under the lock).
     if (stored || rewritten.size) await forgetUnusedBlobs([{ sha256, sizeBytes }, ...(meshBlob ? [meshBlob] : [])]).catch((err: unknown) => console.error("[platewright] upload clean-up failed", err));

@@ -1,11 +1,12 @@
 import { z } from "zod";
 import { itemStatuses, partStatuses } from "@/lib/status";
+import { calendarDate } from "./dates";
 
 // Shared by the Bench forms and the route handlers.
 const isoDate = z.union([
   z.literal("").transform(() => null),
   z.null(),
-  z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date such as 2026-09-30.").refine((s) => !Number.isNaN(Date.parse(s)), "That date does not exist."),
+  calendarDate(),
 ]);
 
 const name = z.string().trim().min(1, "Give it a name.").max(120, "At most 120 characters.");

@@ -5,7 +5,7 @@ import { roles } from "@/db/schema/users";
 const email = z.string().trim().toLowerCase().email("Enter an e-mail address such as name@example.org.").max(254);
 const password = z
   .string()
-  .min(10, "Use at least 10 characters.")
+  .min(12, "Use at least 12 characters.")
   .max(200, "Use at most 200 characters.");
 const token = z.string().regex(/^[A-Za-z0-9_-]{43}$/, "This link is not complete. Copy the whole link from the message.");
 

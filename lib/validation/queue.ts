@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { calendarDate } from "./dates";
 
 /** Members pick normal or soon; the workshop may set any level up to the top. */
 export const MEMBER_MAX_PRIORITY = 1;
@@ -7,7 +8,7 @@ export const MAX_PRIORITY = 5;
 export const priorityLabel = (p: number): string => (p <= 0 ? "Normal" : p === 1 ? "Soon" : `Rush ${p}`);
 
 const isoDate = z
-  .union([z.literal(""), z.null(), z.iso.date({ error: "Enter a date (YYYY-MM-DD)." })])
+  .union([z.literal(""), z.null(), calendarDate("Enter a date (YYYY-MM-DD).")])
   .default(null)
   .transform((v) => (v ? v : null));
 

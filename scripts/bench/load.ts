@@ -1,7 +1,10 @@
 // Load benchmark: the operator's queue listing (GET /api/queue/board) against a trivial route
 // (GET /api/health), 50 connections for 10 s each, on the production server over loopback, in one run.
 // Prints requests per second and p95 latency for both and their ratio. Goal: the board keeps at least
-// 30% of the trivial route's throughput. Not part of `npm test`.
+// 30% of the trivial route's throughput. Then a burst: 20 parallel re-plans (operator) while two
+// members keep reading (GET /api/me, /api/health); goal: no 5xx and no request over 5 s. Last,
+// eight parallel 3MF uploads while health is polled (./upload-burst.ts); goal: health under 1 s.
+// Not part of `npm test`.
 //
 // Usage: npm run bench:load  (needs a build: `next build` or `bash scripts/e2e.sh …` leaves one in .next)
 // It takes the e2e lock while it runs, so a concurrent e2e build cannot replace .next under it.
@@ -12,11 +15,14 @@ import net from "node:net";
 import path from "node:path";
 import autocannon from "autocannon";
 import { demoUsers } from "../../db/seed-data";
+import { uploadBurst } from "./upload-burst";
 
 const LOCK = "/tmp/platewright-e2e.lock";
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
 const SECONDS = Number(process.env.LOAD_SECONDS ?? 10);
 const GOAL = 0.3;
+const REPLANS = Number(process.env.LOAD_REPLANS ?? 20);
+const SLOW_MS = 5_000;
 const root = path.resolve(import.meta.dirname, "../..");
 
 if (!process.env.PW_LOAD_LOCKED) {
@@ -93,6 +99,54 @@ async function hammer(label: string, url: string, cookie?: string): Promise<Figu
   };
 }
 
+interface Timed {
+  what: string;
+  status: number;
+  ms: number;
+}
+
+async function timed(what: string, url: string, init: RequestInit): Promise<Timed> {
+  const t0 = performance.now();
+  const status = await fetch(url, init).then(
+    async (r) => (await r.arrayBuffer(), r.status),
+    () => 0,
+  );
+  return { what, status, ms: performance.now() - t0 };
+}
+
+/** REPLANS parallel re-plans while members read in a loop until the last re-plan has answered. */
+async function replanBurst(base: string, operatorCookie: string): Promise<boolean> {
+  const members = demoUsers.filter((u) => u.role === "member").slice(0, 2);
+  const memberCookies = await Promise.all(members.map((m) => signIn(base, m.email, m.password)));
+  let done = false;
+  const reads: Timed[] = [];
+  const readers = memberCookies.map(async (c) => {
+    while (!done) {
+      reads.push(await timed("GET /api/me (member)", `${base}/api/me`, { headers: { cookie: c } }));
+      reads.push(await timed("GET /api/health", `${base}/api/health`, {}));
+    }
+  });
+  const t0 = performance.now();
+  const plans = await Promise.all(Array.from({ length: REPLANS }, () => timed("POST /api/plan (operator)", `${base}/api/plan`, { method: "POST", headers: { cookie: operatorCookie, origin: base } })));
+  const wall = performance.now() - t0;
+  done = true;
+  await Promise.all(readers);
+  const all = [...plans, ...reads];
+  const rows = [...new Set(all.map((t) => t.what))].map((what) => {
+    const mine = all.filter((t) => t.what === what);
+    const ms = mine.map((t) => t.ms).sort((a, b) => a - b);
+    const statuses = [...new Set(mine.map((t) => t.status))].sort().join(" ");
+    return { request: what, count: mine.length, statuses, "p50 ms": percentile(ms, 50).toFixed(0), "max ms": ms[ms.length - 1]!.toFixed(0) };
+  });
+  console.log(`bench:load: ${REPLANS} parallel re-plans with two members reading (${wall.toFixed(0)} ms until the last re-plan answered)`);
+  console.table(rows);
+  const failed = all.filter((t) => t.status === 0 || t.status >= 500);
+  const slow = all.filter((t) => t.ms > SLOW_MS);
+  const ok = failed.length === 0 && slow.length === 0 && plans.every((p) => p.status === 200);
+  console.log(`burst: ${failed.length} failed or 5xx, ${slow.length} over ${SLOW_MS} ms, re-plans all 200: ${plans.every((p) => p.status === 200)}  goal (none failed, none slow): ${ok ? "met" : "NOT met"}`);
+  return ok;
+}
+
 async function main(): Promise<number> {
   if (!existsSync(path.join(root, ".next/BUILD_ID"))) {
     console.error("bench:load: no production build in .next. Build first (`npx next build`, or run any spec through scripts/e2e.sh), then run again.");
@@ -143,7 +197,10 @@ async function main(): Promise<number> {
     console.log(`ratio (board / health throughput): ${ratio.toFixed(3)}  goal ≥ ${GOAL}: ${ratio >= GOAL ? "met" : "NOT met"}`);
     const clean = [trivial, queue].every((f) => f.errors === 0 && f.non2xx === 0);
     if (!clean) console.error("bench:load: some requests failed (see errors / non-2xx above)");
-    return clean ? 0 : 1;
+    const burstOk = await replanBurst(base, cookie);
+    const member = demoUsers.find((u) => u.role === "member")!;
+    const uploadsOk = await uploadBurst(base, await signIn(base, member.email, member.password));
+    return clean && burstOk && uploadsOk ? 0 : 1;
   } finally {
     server?.kill("SIGTERM");
   }

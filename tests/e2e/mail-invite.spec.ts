@@ -66,7 +66,7 @@ test.describe("invitations", () => {
     await p.getByLabel("Your name").fill("Noor Castellan");
     await p.getByLabel("Password").fill("short");
     await p.getByRole("button", { name: "Join and sign in" }).click();
-    await expect(p.getByText("Use at least 10 characters.")).toBeVisible();
+    await expect(p.getByText("Use at least 12 characters.")).toBeVisible();
     await p.getByLabel("Password").fill("a-long-enough-password");
     await p.getByRole("button", { name: "Join and sign in" }).click();
     await expect(p).toHaveURL(/\/bench/);

@@ -34,14 +34,17 @@ test("every route handler and server action has a row, and every row a route", (
   expect(listServerActionFiles()).toEqual(Object.keys(serverActions).sort());
 });
 
-async function call(c: APIRequestContext, method: string, path: string, body: MatrixRow["body"]) {
-  const opts =
-    body === "invalid-json"
-      ? { headers: { "content-type": "application/json" }, data: JSON.stringify({ __bad: 1 }) }
-      : body === "upload"
-        ? { headers: { "content-type": "application/octet-stream" }, data: Buffer.from("solid x\nendsolid x\n") }
-        : {};
-  return c.fetch(path, { method, maxRedirects: 0, ...opts });
+const SAFE = ["GET", "HEAD", "OPTIONS"];
+
+/** Another origin on the same site: same host, another port (cookies are not kept apart by port). */
+const FOREIGN_ORIGIN = "http://127.0.0.1:4252";
+
+async function call(c: APIRequestContext, method: string, path: string, body: MatrixRow["body"], origin: string | null = SAFE.includes(method) ? null : baseURL) {
+  const type = body === "invalid-json" ? "application/json" : body === "upload" ? "application/octet-stream" : null;
+  const data = body === "invalid-json" ? JSON.stringify({ __bad: 1 }) : body === "upload" ? Buffer.from("solid x\nendsolid x\n") : undefined;
+  // Writes carry the Origin a browser sends: our own here; the origin-rule test sends another.
+  const headers: Record<string, string> = { ...(type ? { "content-type": type } : {}), ...(origin ? { origin, "sec-fetch-site": origin === baseURL ? "same-origin" : "same-site" } : {}) };
+  return c.fetch(path, { method, maxRedirects: 0, headers, ...(data !== undefined ? { data } : {}) });
 }
 
 const okFor = (e: Expect, s: number) => (Array.isArray(e) ? e.includes(s) : e === s);
@@ -75,6 +78,30 @@ for (const [key, row] of Object.entries(matrix)) {
     }
     if (skipped.length) test.info().annotations.push({ type: "skip", description: skipped.join("; ") });
     test.info().annotations.push({ type: "statuses", description: JSON.stringify(got) });
+  });
+}
+
+// Origin rule (lib/origin-check.ts, proxy.ts): every state-changing route refuses a request from
+// another origin before its own checks run, as a caller the route would otherwise serve; next-auth's
+// routes (CSRF token) and the signed webhook keep their own protection and answer as usual.
+for (const [key, row] of Object.entries(matrix)) {
+  const [method, route] = key.split(" ") as [string, string];
+  if (SAFE.includes(method)) continue;
+  test(`${key}: refused from another origin`, async () => {
+    const served = callers.find((c) => typeof row.expect[c] === "number" && ![401, 403, 404].includes(row.expect[c] as number)) ?? callers.find((c) => typeof row.expect[c] !== "string") ?? "owner";
+    const path = row.throwaway?.callers.includes(served) ? await row.throwaway.make(api[served], fx) : row.path(fx);
+    const res = await call(api[served], method, path, row.body, FOREIGN_ORIGIN);
+    const own = route.startsWith("/api/auth/") || route.startsWith("/api/webhooks/");
+    if (own) {
+      expect(okFor(row.expect[served] as Expect, res.status()), `${served} ${key}: its own protection answers (${res.status()})`).toBe(true);
+    } else {
+      expect(res.status(), `${served} ${method} ${path}`).toBe(403);
+      expect(((await res.json()) as { code?: string }).code).toBe("cross_origin");
+      // A form post (no JSON) from the other origin, the red-team pass's case, is refused the same way.
+      const form = await api[served].fetch(path, { method, maxRedirects: 0, headers: { origin: FOREIGN_ORIGIN, "content-type": "application/x-www-form-urlencoded" }, data: "a=1" });
+      expect(form.status()).toBe(403);
+      if (row.stillThere) expect((await api.owner.get(row.stillThere(fx))).status()).toBe(200);
+    }
   });
 }
 

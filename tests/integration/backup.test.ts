@@ -78,6 +78,9 @@ describe("backup and restore", () => {
     mkdirSync(path.join(srcFiles, "ab"), { recursive: true });
     writeFileSync(path.join(srcFiles, "ab", "abcdef"), Buffer.from([0, 1, 2, 255, 254]));
     writeFileSync(path.join(srcFiles, "top-level"), "plain text\n");
+    // A partial upload a killed server left behind (issue 17, finding 9): never part of a backup.
+    mkdirSync(path.join(srcFiles, ".tmp"), { recursive: true });
+    writeFileSync(path.join(srcFiles, ".tmp", "half.upload"), "partial bytes");
     const env = { DB_NAME: source.database, STORAGE_DIR: srcFiles, DB_PORT: String(base.port) };
     const out = path.join(work, "backup");
     run(["create", out], env);
@@ -89,7 +92,9 @@ describe("backup and restore", () => {
     expect(Object.keys(before).length).toBeGreaterThan(3);
     expect(before.users).toBeGreaterThan(0);
     expect(await tableCounts(target)).toEqual(before);
-    expect(filesIn(dstFiles)).toEqual(filesIn(srcFiles));
+    const kept = Object.fromEntries(Object.entries(filesIn(srcFiles)).filter(([p]) => !p.startsWith(".tmp")));
+    expect(filesIn(dstFiles)).toEqual(kept);
+    expect(readFileSync(path.join(out, "manifest.txt"), "utf8")).not.toContain(".tmp");
 
     // Restoring over a database that has tables is refused, so nothing is overwritten.
     expect(() => run(["restore", out], { ...env, DB_NAME: target.database, STORAGE_DIR: dstFiles })).toThrow();

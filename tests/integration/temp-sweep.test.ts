@@ -6,7 +6,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { tempDir } from "@/lib/server/storage";
-import { sweepTempFiles, TEMP_MAX_AGE_MS } from "@/lib/server/storage/sweep";
+import { startTempSweeper, sweepTempFiles, TEMP_MAX_AGE_MS } from "@/lib/server/storage/sweep";
 
 const root = mkdtempSync(path.join(tmpdir(), "pw-temp-sweep-"));
 process.env.STORAGE_DIR = root;
@@ -41,5 +41,27 @@ describe("sweepTempFiles", () => {
     const later = Date.now() + TEMP_MAX_AGE_MS + 120_000;
     expect(await sweepTempFiles({ now: later })).toEqual(["c.upload"]);
     expect(await sweepTempFiles({ dir: path.join(root, "no-such-folder") })).toEqual([]);
+  });
+});
+
+describe("startTempSweeper (issue 17, finding 9: dead uploads were swept only at start)", () => {
+  it("keeps sweeping while the server runs: a file that turns old after start is removed by a later round", async () => {
+    const dir = path.join(root, "timer");
+    const young = path.join(dir, "dies-later.upload");
+    fileAged(young, 0);
+    const removed: string[] = [];
+    const stop = startTempSweeper({ dir, intervalMs: 50, onRemoved: (names) => removed.push(...names) });
+    try {
+      await new Promise((r) => setTimeout(r, 120));
+      expect(existsSync(young)).toBe(true); // young: an upload that may still be under way
+      // The upload's process dies; its file is not written to again and ages past the threshold.
+      const t = (Date.now() - TEMP_MAX_AGE_MS - 60_000) / 1000;
+      utimesSync(young, t, t);
+      for (let i = 0; i < 40 && existsSync(young); i++) await new Promise((r) => setTimeout(r, 50));
+      expect(existsSync(young)).toBe(false);
+      expect(removed).toEqual(["dies-later.upload"]);
+    } finally {
+      stop();
+    }
   });
 });

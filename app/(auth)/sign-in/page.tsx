@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import { redirect } from "next/navigation";
 import { roleHome } from "@/lib/permissions";
+import { sameOriginPath } from "@/lib/safe-redirect";
+import { appOrigin } from "@/lib/server/origin";
 import { currentUser } from "@/lib/server/session";
 import { SignInForm } from "./sign-in-form";
 
@@ -10,8 +12,8 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
   const user = await currentUser();
   const { callbackUrl } = await searchParams;
   if (user) redirect(roleHome[user.role]);
-  // Only same-site paths are followed after sign-in.
-  const next = callbackUrl && callbackUrl.startsWith("/") && !callbackUrl.startsWith("//") ? callbackUrl : "/";
+  // Only places on our own origin are followed after sign-in (parsed as a browser would).
+  const next = sameOriginPath(callbackUrl, appOrigin());
   return (
     <main className="flex min-h-screen items-center justify-center px-4">
       <div className="w-full max-w-sm rounded-xl border border-rule bg-sheet p-8 shadow-sm">

@@ -4,6 +4,7 @@ import { createAssembly, listMyAssemblies } from "@/lib/server/assemblies";
 import { errorResponse, readJson } from "@/lib/server/errors";
 import { requireUser } from "@/lib/server/session";
 import { assemblyInput } from "@/lib/validation/assemblies";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function GET() {
   try {
@@ -16,6 +17,7 @@ export async function GET() {
 
 export async function POST(req: Request) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     const input = assemblyInput.parse(await readJson(req));
     return NextResponse.json(await createAssembly(user, input), { status: 201 });

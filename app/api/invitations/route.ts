@@ -4,6 +4,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { createInvitation, listInvitations } from "@/lib/server/invitations";
 import { requireUser } from "@/lib/server/session";
 import { inviteInput } from "@/lib/validation/mail";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function GET() {
   try {
@@ -16,6 +17,7 @@ export async function GET() {
 
 export async function POST(req: Request) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("people:manage");
     const input = inviteInput.parse(await readJson(req));
     return NextResponse.json(await createInvitation(user, input), { status: 201 });

@@ -5,6 +5,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { createMaterial, listMaterials } from "@/lib/server/materials";
 import { requireUser } from "@/lib/server/session";
 import { materialInput } from "@/lib/validation/materials";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function GET() {
   try {
@@ -17,6 +18,7 @@ export async function GET() {
 
 export async function POST(req: Request) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("materials:manage");
     const input = materialInput.parse(await readJson(req));
     return NextResponse.json(await createMaterial(user, input), { status: 201 });

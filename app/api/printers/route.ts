@@ -5,6 +5,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { createPrinter, listPrinters } from "@/lib/server/printers";
 import { requireUser } from "@/lib/server/session";
 import { printerInput } from "@/lib/validation/printers";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function GET() {
   try {
@@ -17,6 +18,7 @@ export async function GET() {
 
 export async function POST(req: Request) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("printers:manage");
     const input = printerInput.parse(await readJson(req));
     return NextResponse.json(await createPrinter(user, input), { status: 201 });

@@ -4,9 +4,11 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { listWaiting, sendToQueue } from "@/lib/server/queue";
 import { requireUser } from "@/lib/server/session";
 import { queueSendInput } from "@/lib/validation/queue";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function POST(req: Request) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("queue:send");
     return NextResponse.json(await sendToQueue(user, queueSendInput.parse(await readJson(req))), { status: 201 });
   } catch (e) {

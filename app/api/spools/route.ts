@@ -4,9 +4,11 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { createSpool } from "@/lib/server/materials";
 import { requireUser } from "@/lib/server/session";
 import { spoolInput } from "@/lib/validation/materials";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function POST(req: Request) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("spools:manage");
     const input = spoolInput.parse(await readJson(req));
     return NextResponse.json(await createSpool(user, input), { status: 201 });

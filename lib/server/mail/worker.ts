@@ -1,4 +1,5 @@
 import "server-only";
+import { outsideTransaction } from "@/db/tx-guard";
 import { env } from "@/lib/env";
 import { drainOutbox } from "./outbox";
 
@@ -40,10 +41,14 @@ export function startOutboxWorker(): void {
   void tick(state);
 }
 
-/** Asks a running worker to look at the outbox now; does nothing where no worker runs (tests, scripts). */
+/**
+ * Asks a running worker to look at the outbox now; does nothing where no worker runs (tests, scripts).
+ * Often called inside a transaction (notify with `tx`): the timer is made outside it, so the worker's
+ * own queries are not taken for pool calls from inside that transaction (db/tx-guard.ts).
+ */
 export function kickOutbox(): void {
   const state = g.__pwOutboxWorker;
-  if (state) setTimeout(() => void tick(state), 0);
+  if (state) outsideTransaction(() => setTimeout(() => void tick(state), 0));
 }
 
 export function stopOutboxWorker(): void {

@@ -32,3 +32,32 @@ export async function sweepTempFiles(opts: { maxAgeMs?: number; now?: number; di
   }
   return removed;
 }
+
+/** How often a running server sweeps, so files of uploads that died with their process do not pile up. */
+export const TEMP_SWEEP_INTERVAL_MS = 10 * 60_000;
+
+const g = globalThis as unknown as { __pwTempSweeper?: () => void };
+
+/**
+ * Sweeps now and then every `intervalMs` for as long as the process runs (the timer does not keep it
+ * alive). Once per process: a second call returns the first one's stop function.
+ */
+export function startTempSweeper(opts: { intervalMs?: number; dir?: string; maxAgeMs?: number; onRemoved?: (names: string[]) => void } = {}): () => void {
+  if (g.__pwTempSweeper) return g.__pwTempSweeper;
+  const once = () =>
+    sweepTempFiles({ dir: opts.dir, maxAgeMs: opts.maxAgeMs }).then(
+      (removed) => {
+        if (removed.length) opts.onRemoved?.(removed);
+      },
+      (e: unknown) => console.error("[platewright] temp sweep:", e instanceof Error ? e.message : e),
+    );
+  void once();
+  const timer = setInterval(() => void once(), opts.intervalMs ?? TEMP_SWEEP_INTERVAL_MS);
+  timer.unref();
+  const stop = () => {
+    clearInterval(timer);
+    g.__pwTempSweeper = undefined;
+  };
+  g.__pwTempSweeper = stop;
+  return stop;
+}

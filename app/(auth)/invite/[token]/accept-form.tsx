@@ -49,7 +49,7 @@ export function AcceptForm({ token, email }: { token: string; email: string }) {
       <Field label="Your name" name="name" errors={fieldErrors.name}>
         <TextInput id="name" name="name" autoComplete="name" value={name} onChange={(e) => setName(e.target.value)} invalid={!!fieldErrors.name} />
       </Field>
-      <Field label="Password" name="password" errors={fieldErrors.password} hint="At least 10 characters.">
+      <Field label="Password" name="password" errors={fieldErrors.password} hint="At least 12 characters; a few unrelated words make a strong one.">
         <TextInput id="password" name="password" type="password" autoComplete="new-password" value={password} onChange={(e) => setPassword(e.target.value)} invalid={!!fieldErrors.password} />
       </Field>
       <Button type="submit" disabled={accept.isPending || accept.isSuccess}>

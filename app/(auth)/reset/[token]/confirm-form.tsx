@@ -45,7 +45,7 @@ export function ConfirmForm({ token, email }: { token: string; email: string }) 
         For <strong className="text-ink">{email}</strong>.
       </p>
       {save.isError ? <Notice tone="fail" title={save.error.message} /> : null}
-      <Field label="New password" name="password" errors={fieldErrors.password} hint="At least 10 characters.">
+      <Field label="New password" name="password" errors={fieldErrors.password} hint="At least 12 characters; a few unrelated words make a strong one.">
         <TextInput id="password" name="password" type="password" autoComplete="new-password" value={password} onChange={(e) => setPassword(e.target.value)} invalid={!!fieldErrors.password} />
       </Field>
       <Button type="submit" disabled={save.isPending}>

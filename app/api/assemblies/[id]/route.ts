@@ -5,6 +5,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { getAssemblyDetail } from "@/lib/server/parts";
 import { requireUser } from "@/lib/server/session";
 import { assemblyPatch } from "@/lib/validation/assemblies";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -19,6 +20,7 @@ export async function GET(_req: Request, ctx: Ctx) {
 
 export async function PATCH(req: Request, ctx: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).id);
     // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.
@@ -29,8 +31,9 @@ export async function PATCH(req: Request, ctx: Ctx) {
   }
 }
 
-export async function DELETE(_req: Request, ctx: Ctx) {
+export async function DELETE(req: Request, ctx: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     await deleteAssembly(user, parseId((await ctx.params).id));
     return new NextResponse(null, { status: 204 });

@@ -4,11 +4,13 @@ import { deleteItem, itemAssembly, parseId, requireEdit, updateItem } from "@/li
 import { errorResponse, readJson } from "@/lib/server/errors";
 import { requireUser } from "@/lib/server/session";
 import { itemPatch } from "@/lib/validation/assemblies";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 type Ctx = { params: Promise<{ itemId: string }> };
 
 export async function PATCH(req: Request, ctx: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).itemId);
     // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.
@@ -19,8 +21,9 @@ export async function PATCH(req: Request, ctx: Ctx) {
   }
 }
 
-export async function DELETE(_req: Request, ctx: Ctx) {
+export async function DELETE(req: Request, ctx: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     await deleteItem(user, parseId((await ctx.params).itemId));
     return new NextResponse(null, { status: 204 });

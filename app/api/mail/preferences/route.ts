@@ -4,6 +4,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { getMyPreferences, updateMyPreferences } from "@/lib/server/mail/preferences";
 import { requireUser } from "@/lib/server/session";
 import { preferencesInput } from "@/lib/validation/mail";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function GET() {
   try {
@@ -16,6 +17,7 @@ export async function GET() {
 
 export async function PUT(req: Request) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("account:messages");
     const input = preferencesInput.parse(await readJson(req));
     return NextResponse.json(await updateMyPreferences(user, input));

@@ -6,11 +6,13 @@ import { deleteMaterial, updateMaterial } from "@/lib/server/materials";
 import { parseId } from "@/lib/server/printers";
 import { requireUser } from "@/lib/server/session";
 import { materialUpdateInput } from "@/lib/validation/materials";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 type Ctx = { params: Promise<{ id: string }> };
 
 export async function PATCH(req: Request, { params }: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("materials:manage");
     const id = parseId((await params).id);
     const input = materialUpdateInput.parse(await readJson(req));
@@ -20,8 +22,9 @@ export async function PATCH(req: Request, { params }: Ctx) {
   }
 }
 
-export async function DELETE(_req: Request, { params }: Ctx) {
+export async function DELETE(req: Request, { params }: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("materials:manage");
     await deleteMaterial(user, parseId((await params).id));
     return new NextResponse(null, { status: 204 });

@@ -6,6 +6,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { deletePrinter, getPrinter, parseId, updatePrinter } from "@/lib/server/printers";
 import { requireUser } from "@/lib/server/session";
 import { printerUpdateInput } from "@/lib/validation/printers";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -20,6 +21,7 @@ export async function GET(_req: Request, { params }: Ctx) {
 
 export async function PATCH(req: Request, { params }: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("printers:manage");
     const id = parseId((await params).id);
     const input = printerUpdateInput.parse(await readJson(req));
@@ -29,8 +31,9 @@ export async function PATCH(req: Request, { params }: Ctx) {
   }
 }
 
-export async function DELETE(_req: Request, { params }: Ctx) {
+export async function DELETE(req: Request, { params }: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("printers:manage");
     await deletePrinter(user, parseId((await params).id));
     return new NextResponse(null, { status: 204 });

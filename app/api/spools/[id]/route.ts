@@ -5,9 +5,11 @@ import { setSpoolGrams } from "@/lib/server/materials";
 import { parseId } from "@/lib/server/printers";
 import { requireUser } from "@/lib/server/session";
 import { spoolGramsInput } from "@/lib/validation/materials";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function PATCH(req: Request, { params }: { params: Promise<{ id: string }> }) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("spools:manage");
     const id = parseId((await params).id);
     await setSpoolGrams(user, id, spoolGramsInput.parse(await readJson(req)));

@@ -5,6 +5,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { attendedHoursView, setAttendedHours } from "@/lib/server/hours";
 import { requireUser } from "@/lib/server/session";
 import { attendedHoursInput } from "@/lib/validation/hours";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function GET() {
   try {
@@ -17,6 +18,7 @@ export async function GET() {
 
 export async function PUT(req: Request) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("hours:edit");
     const input = attendedHoursInput.parse(await readJson(req));
     return NextResponse.json(await setAttendedHours(user, input));

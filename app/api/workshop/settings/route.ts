@@ -5,6 +5,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { requireUser } from "@/lib/server/session";
 import { getWorkshopSettings, updateWorkshopSettings } from "@/lib/server/workshop";
 import { workshopSettingsInput } from "@/lib/validation/workshop";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function GET() {
   try {
@@ -17,6 +18,7 @@ export async function GET() {
 
 export async function PATCH(req: Request) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("workshop:edit");
     const input = workshopSettingsInput.parse(await readJson(req));
     return NextResponse.json(await updateWorkshopSettings(user, input));

@@ -4,9 +4,11 @@ import { createItem, parseId, requireEdit } from "@/lib/server/assemblies";
 import { errorResponse, readJson } from "@/lib/server/errors";
 import { requireUser } from "@/lib/server/session";
 import { itemInput } from "@/lib/validation/assemblies";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function POST(req: Request, ctx: { params: Promise<{ id: string }> }) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).id);
     // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.

@@ -4,6 +4,7 @@ import { listShares, parseId, requireEdit, shareAssembly, unshareAssembly } from
 import { errorResponse, readJson } from "@/lib/server/errors";
 import { requireUser } from "@/lib/server/session";
 import { shareInput } from "@/lib/validation/assemblies";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -18,6 +19,7 @@ export async function GET(_req: Request, ctx: Ctx) {
 
 export async function POST(req: Request, ctx: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).id);
     // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.
@@ -30,6 +32,7 @@ export async function POST(req: Request, ctx: Ctx) {
 
 export async function DELETE(req: Request, ctx: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).id);
     const target = parseId(new URL(req.url).searchParams.get("userId") ?? "");

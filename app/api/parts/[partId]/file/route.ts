@@ -6,9 +6,11 @@ import { AppError, errorResponse } from "@/lib/server/errors";
 import { requireUser } from "@/lib/server/session";
 import { receiveUpload } from "@/lib/server/uploads";
 import { uploadQuery } from "@/lib/validation/assemblies";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function PUT(req: Request, ctx: { params: Promise<{ partId: string }> }) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).partId);
     // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.

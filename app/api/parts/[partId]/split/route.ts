@@ -6,6 +6,7 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { requireUser } from "@/lib/server/session";
 import { acceptSplit, getSplitLinks } from "@/lib/server/split";
 import { splitAcceptInput } from "@/lib/validation/orientation";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 type Ctx = { params: Promise<{ partId: string }> };
 
@@ -20,6 +21,7 @@ export async function GET(_req: Request, ctx: Ctx) {
 
 export async function POST(req: Request, ctx: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).partId);
     // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.

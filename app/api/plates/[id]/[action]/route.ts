@@ -5,9 +5,11 @@ import { cancelPlate, failPlate, finishPlate, movePlate, startPlate } from "@/li
 import { parseId } from "@/lib/server/printers";
 import { requireUser } from "@/lib/server/session";
 import { plateCancelInput, plateFailInput, plateFinishInput, plateMoveInput, plateStartInput } from "@/lib/validation/plates";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function POST(req: Request, ctx: { params: Promise<{ id: string; action: string }> }) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("plates:act");
     const { id: raw, action } = await ctx.params;
     const id = parseId(raw);

@@ -5,9 +5,11 @@ import { loadSpool } from "@/lib/server/materials";
 import { parseId } from "@/lib/server/printers";
 import { requireUser } from "@/lib/server/session";
 import { spoolLoadInput } from "@/lib/validation/materials";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 export async function PUT(req: Request, { params }: { params: Promise<{ id: string }> }) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("spools:manage");
     const id = parseId((await params).id);
     const { printerId } = spoolLoadInput.parse(await readJson(req));

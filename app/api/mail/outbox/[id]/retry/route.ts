@@ -4,9 +4,11 @@ import { z } from "zod";
 import { errorResponse } from "@/lib/server/errors";
 import { retryMessage } from "@/lib/server/mail";
 import { requireUser } from "@/lib/server/session";
+import { assertSameOrigin } from "@/lib/server/origin";
 
-export async function POST(_req: Request, ctx: { params: Promise<{ id: string }> }) {
+export async function POST(req: Request, ctx: { params: Promise<{ id: string }> }) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("mail:admin");
     const id = z.coerce.number().int().positive().parse((await ctx.params).id);
     await retryMessage(user, id);

@@ -6,11 +6,13 @@ import { errorResponse, readJson } from "@/lib/server/errors";
 import { runOrientationSearch } from "@/lib/server/orientation";
 import { requireUser } from "@/lib/server/session";
 import { orientationSearchInput } from "@/lib/validation/orientation";
+import { assertSameOrigin } from "@/lib/server/origin";
 
 type Ctx = { params: Promise<{ partId: string }> };
 
 export async function POST(req: Request, ctx: Ctx) {
   try {
+    assertSameOrigin(req);
     const user = await requireUser("bench:use");
     const id = parseId((await ctx.params).partId);
     // Who may change it is checked before the body is validated, so a caller who may not see it gets 404, not field errors.
