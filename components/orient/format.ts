@@ -1,4 +1,6 @@
 // Number formatting for the planner panels (en-GB, as on the part page).
+import { materialKeyOf } from "@/lib/rules/materials";
+
 export const mm = (v: number, digits = 1) => v.toLocaleString("en-GB", { maximumFractionDigits: digits, minimumFractionDigits: 0 });
 
 export function downLabel(d: readonly number[]): string {
@@ -24,9 +26,9 @@ export interface BedInfo {
   materials: string[];
 }
 
-/** Printers that take the part's material (all when none match), as the planner wants them. */
+/** Printers that take the part's material (lib/rules' material keys; none when the workshop does not print it), as the planner wants them. */
 export function plannerPrinters(beds: BedInfo[], material: string) {
-  const key = material.trim().split(/\s+/)[0]?.toLowerCase() ?? "";
-  const able = beds.filter((b) => b.materials.some((m) => m.toLowerCase() === key));
-  return (able.length ? able : beds).map((b) => ({ id: String(b.id), bed: [b.bedX, b.bedY] as [number, number], height: b.height }));
+  const key = materialKeyOf(material);
+  const able = key ? beds.filter((b) => b.materials.some((m) => materialKeyOf(m) === key)) : [];
+  return able.map((b) => ({ id: String(b.id), bed: [b.bedX, b.bedY] as [number, number], height: b.height }));
 }

@@ -18,9 +18,12 @@ interface StoredAnalysis {
 export function PartQuote({
   analysis,
   part,
+  placed,
 }: {
   analysis: unknown;
   part: { material: string; layerHeightMm: number; walls: number; infillPercent: number };
+  /** Footprint and height as the part will lie on the bed (the chosen orientation, else the file as drawn). */
+  placed: { footprint: [number, number]; height: number; source: "chosen" | "file" } | null;
 }) {
   const a = readAnalysis(analysis);
   const material = materialKeyOf(part.material);
@@ -47,9 +50,9 @@ export function PartQuote({
         input={{
           volumeMm3: a.volume_mm3!,
           areaMm2: a.area_mm2!,
-          heightMm: a.size[2],
-          widthMm: a.size[0],
-          depthMm: a.size[1],
+          heightMm: placed?.height ?? a.size[2],
+          widthMm: placed?.footprint[0] ?? a.size[0],
+          depthMm: placed?.footprint[1] ?? a.size[1],
           footprintAreaMm2: a.footprint_area_mm2 || undefined,
           layerHeightMm: part.layerHeightMm,
           wallCount: part.walls,

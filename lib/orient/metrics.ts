@@ -3,11 +3,21 @@
  * here is only a proxy (each overhang facet's column reaches the bed); the height field in
  * support.ts refines the best directions.
  */
+import { isOverhang, restsOnBed } from "@/lib/rules/surface";
 import type { FacetData } from "./geometry";
 import type { Mat3 } from "./rotation";
 
-/** A facet rests on the bed when it faces down within 2° and lies within bedEps of the bed. */
-const COS_CONTACT = Math.cos((2 * Math.PI) / 180);
+/** Height of a facet's highest corner along (ux, uy, uz). */
+function topOf(f: FacetData, t: number, ux: number, uy: number, uz: number): number {
+  const v = f.vertices;
+  let top = -Infinity;
+  for (let k = 0; k < 3; k++) {
+    const i = f.indices[3 * t + k]! * 3;
+    const h = ux * v[i]! + uy * v[i + 1]! + uz * v[i + 2]!;
+    if (h > top) top = h;
+  }
+  return top;
+}
 
 export interface QuickMetrics {
   overhangArea: number;
@@ -20,7 +30,11 @@ export interface QuickMetrics {
   highVertex: number;
 }
 
-/** `m` is the rotation into the print frame; its third row is "up" in the file's frame. */
+/**
+ * `m` is the rotation into the print frame; its third row is "up" in the file's frame. Bed contact
+ * and overhang follow lib/rules/surface (a facet is on the bed when its highest corner is within
+ * `bedEps` of the lowest point; only facets whose centroid is within reach are checked corner by corner).
+ */
 export function quickMetrics(
   f: FacetData,
   vertices: Float32Array,
@@ -38,15 +52,16 @@ export function quickMetrics(
   }
   let overhangArea = 0, bedContactArea = 0, supportProxy = 0;
   const N = f.normals, C = f.centroids, A = f.areas;
-  const bedTop = lo + bedEps;
+  const R = f.reach;
   for (let t = 0; t < f.count; t++) {
     // n · down, with down = −up.
     const nd = -(ux * N[3 * t]! + uy * N[3 * t + 1]! + uz * N[3 * t + 2]!);
-    if (nd <= sinTheta) continue;
+    if (nd <= 0) continue;
     const hc = ux * C[3 * t]! + uy * C[3 * t + 1]! + uz * C[3 * t + 2]!;
+    const onBed = hc - R[t]! <= lo + bedEps && restsOnBed(nd, topOf(f, t, ux, uy, uz) - lo, bedEps);
     const a = A[t]!;
-    if (nd >= COS_CONTACT && hc <= bedTop) bedContactArea += a;
-    else {
+    if (onBed) bedContactArea += a;
+    else if (isOverhang(nd, sinTheta, false)) {
       overhangArea += a;
       supportProxy += a * nd * (hc - lo);
     }

@@ -5,7 +5,10 @@
 import type { IndexedMesh, TriangleSoup, Vec3 } from "@/lib/mesh/types";
 import { candidateDirections, type CandidateDirection } from "./directions";
 import { fitPrinters } from "./fit";
-import { boundsOf, facetData, indexedVolume, weld } from "./geometry";
+import { soupBounds, weld } from "@/lib/mesh/weld";
+import { indexedVolume } from "@/lib/mesh/volume";
+import { BED_TOLERANCE_MM, OVERHANG_DEG, overhangSine } from "@/lib/rules/surface";
+import { facetData } from "./geometry";
 import { bestSpin, footprintOf, quickMetrics, type QuickMetrics } from "./metrics";
 import { rotatePoints, rotationForDown, type Rotation } from "./rotation";
 import { DEFAULT_WEIGHTS, orientationScore, type ScoreScale } from "./score";
@@ -52,12 +55,11 @@ function pickDistinct<T extends { down: Vec3 }>(sorted: T[], n: number): T[] {
 }
 
 export async function searchOrientations(soup: TriangleSoup, options: OrientOptions = {}): Promise<OrientationResult> {
-  return searchOrientationsIndexed(weld(soup.positions), options);
+  return searchOrientationsIndexed(weld(soup), options);
 }
 
 export async function searchOrientationsIndexed(mesh: IndexedMesh, options: OrientOptions = {}): Promise<OrientationResult> {
-  const theta = ((options.overhangAngle ?? 45) * Math.PI) / 180;
-  const sinTheta = Math.sin(theta);
+  const sinTheta = overhangSine(options.overhangAngle ?? OVERHANG_DEG);
   const layer = options.layerHeight ?? 0.2;
   const printers = options.printers ?? [];
   const weights = { ...DEFAULT_WEIGHTS, ...options.weights };
@@ -65,12 +67,12 @@ export async function searchOrientationsIndexed(mesh: IndexedMesh, options: Orie
   const gridCells = options.gridCells ?? 192;
   const minCell = options.minCellSize ?? 0.25;
   const keep = Math.max(1, options.keep ?? 5);
-  // Within half a layer of the bed a facet prints as the first layer.
-  const bedEps = layer / 2;
+  // The one bed-contact rule (lib/rules/surface), the same the part page's figures use.
+  const bedEps = BED_TOLERANCE_MM;
   const tick = makeTicker(options.signal, options.onProgress);
 
   const f = facetData(mesh);
-  const b = boundsOf(mesh.vertices);
+  const b = soupBounds(mesh.vertices);
   const scale: ScoreScale = {
     volume: Math.abs(indexedVolume(mesh)),
     surfaceArea: f.totalArea,

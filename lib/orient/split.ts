@@ -4,7 +4,9 @@
  * no printer, again and again, until every piece fits. Needs manifold-3d, passed in by the caller.
  */
 import type { IndexedMesh, TriangleSoup } from "@/lib/mesh/types";
-import { soupFromIndexed, weld } from "./geometry";
+import { weld } from "@/lib/mesh/weld";
+import { withoutRepeatedCorners } from "@/lib/mesh/volume";
+import { soupFromIndexed } from "./geometry";
 import { cutIntoPieces, indexedFromSolid, solidFromIndexed, type ManifoldWasm, type Solid } from "./manifold-bridge";
 import { applyOrientation, IDENTITY_MATRIX, rotationFromMatrix, type Rotation } from "./rotation";
 import { makeTicker, searchOrientationsIndexed } from "./search";
@@ -122,7 +124,7 @@ function summarise(kind: SplitCandidate["kind"], planes: CutPlane[], pieces: Spl
 
 function printFrameMesh(soup: TriangleSoup, rotation: Rotation | undefined): IndexedMesh {
   const oriented = applyOrientation(soup, rotation ?? rotationFromMatrix([...IDENTITY_MATRIX]));
-  return weld(oriented.positions);
+  return withoutRepeatedCorners(weld(oriented));
 }
 
 /** Cuts the solid in the middle of its longest side until every piece fits a printer. */

@@ -2,7 +2,7 @@
 import type { Vec3 } from "@/lib/mesh/types";
 import type { Rotation } from "./rotation";
 
-/** A workshop printer as the planner sees it: bed width × depth and build height, mm. */
+/** A workshop printer that takes the part's material, as the planner sees it: bed width × depth and build height, mm. */
 export interface Printer {
   id: string;
   bed: [number, number];

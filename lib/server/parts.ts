@@ -2,11 +2,12 @@ import "server-only";
 import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { db } from "@/db";
 import { assemblies, assemblyShares, partFiles, partInstances, parts, statusEvents, users } from "@/db/schema";
-import { allowedTargets, fitPrinters, planTransition, type FitResult, type PartStatus } from "@/lib/status";
+import { fitPrinters, materialKeyOf } from "@/lib/rules";
+import { allowedTargets, planTransition, type PartStatus } from "@/lib/rules/status";
 import type { PartInput, PartPatch, StatusChangeInput } from "@/lib/validation/assemblies";
 import { accessTo, ancestors, canEdit, itemsOf, listShares, requireEdit, subtreeIds, type Access } from "./assemblies";
 import { AppError } from "./errors";
-import { listPrinterBeds } from "./printers";
+import { partEnvelope, partEnvelopes, workshopPrinters, type PlacedEnvelope } from "./part-envelope";
 import type { SessionUser } from "./session";
 import { getWorkshopSettings } from "./workshop";
 
@@ -151,11 +152,19 @@ export async function changeStatus(user: SessionUser, partId: number, input: Sta
   });
 }
 
-export async function printerFits(size: [number, number, number] | null, material: string) {
-  // Printers may not be set up yet (or their table not migrated): that is "no printers", not an error.
-  const all = await listPrinterBeds().catch(() => []);
-  const beds = all.map((b) => ({ id: b.id, name: b.name, bedX: b.bedX, bedY: b.bedY, height: b.height, materials: b.materials }));
-  const fits: FitResult[] = size ? fitPrinters(size, material, beds) : [];
+/** One printer's answer on the part page. */
+export interface FitResult {
+  printerId: number;
+  name: string;
+  fits: boolean;
+  /** Why not, in plain words; empty when it fits. */
+  reason: string;
+}
+
+/** Which printers the part fits as it will lie on the bed (lib/rules/fit, the queue's own rule). */
+export async function printerFits(envelope: PlacedEnvelope | null, material: string) {
+  const { beds, envelopes } = await workshopPrinters();
+  const fits: FitResult[] = envelope ? fitPrinters(envelope, envelopes, materialKeyOf(material), material).map((f) => ({ printerId: Number(f.printerId), name: f.name, fits: f.fits, reason: f.reason })) : [];
   return { printers: beds.length, fits, beds };
 }
 
@@ -196,8 +205,8 @@ export async function getPartDetail(user: SessionUser, partId: number) {
         .orderBy(desc(statusEvents.at), desc(statusEvents.id))
     : [];
   const current = files.find((f) => f.id === part.currentFileId) ?? null;
-  const size = current ? ((current.analysis as { size: [number, number, number] }).size ?? null) : null;
-  const fit = await printerFits(size, part.material);
+  const placed = current ? await partEnvelope(partId) : null;
+  const fit = await printerFits(placed, part.material);
   const editable = canEdit(access);
   return {
     part,
@@ -209,6 +218,8 @@ export async function getPartDetail(user: SessionUser, partId: number) {
     instances: instances.map((i) => ({ ...i, next: allowedTargets(i.status, user.role, editable) })),
     events,
     fit: { printers: fit.printers, fits: fit.fits },
+    /** Footprint and height as the part will lie on the bed (the chosen orientation, else the file as drawn). */
+    placed,
     beds: fit.beds,
   };
 }
@@ -264,12 +275,14 @@ export async function getAssemblyDetail(user: SessionUser, id: number) {
     ? await d.select({ partId: partInstances.partId, status: partInstances.status, reprints: partInstances.reprints }).from(partInstances).where(inArray(partInstances.partId, partRows.map((p) => p.id)))
     : [];
   const itemRows = await itemsOf(ids);
-  const beds = await listPrinterBeds().catch(() => []);
+  const { beds, envelopes } = await workshopPrinters();
+  const placedOf = await partEnvelopes(partRows.map((p) => p.id));
   const partsOut = partRows.map((p) => {
     const mine = inst.filter((i) => i.partId === p.id);
     // The driver may hand JSON_EXTRACT back parsed or as text, depending on the column type it reports.
     const size = (typeof p.size === "string" ? JSON.parse(p.size) : p.size ?? null) as [number, number, number] | null;
-    const fits = size && beds.length ? fitPrinters(size, p.material, beds).filter((f) => f.fits).length : null;
+    const placed = placedOf.get(p.id);
+    const fits = placed && beds.length ? fitPrinters(placed, envelopes, materialKeyOf(p.material), p.material).filter((f) => f.fits).length : null;
     const { size: _s, ...rest } = p;
     return { ...rest, size, statuses: mine.map((i) => i.status), reprintsPending: mine.filter((i) => i.reprints > 0 && i.status !== "printed" && i.status !== "accepted").length, fittingPrinters: fits };
   });

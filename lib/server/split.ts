@@ -7,8 +7,7 @@ import { db } from "@/db";
 import { partFiles, partInstances, parts, partSplits, queueEntries, statusEvents } from "@/db/schema";
 import { analysisToJson, analyzeBytes, writeStl, type TriangleSoup } from "@/lib/mesh";
 import { applyOrientation, searchOrientations, splitUntilFits, type ManifoldWasm, type Printer, type Rotation } from "@/lib/orient";
-import { weld } from "@/lib/orient/geometry";
-import { cutIntoPieces, solidFromIndexed, soupFromSolid } from "@/lib/orient/manifold-bridge";
+import { cutIntoPieces, solidFromIndexed, soupFromSolid, weldForSolid } from "@/lib/orient/manifold-bridge";
 import type { SplitAcceptInput } from "@/lib/validation/orientation";
 import { AppError } from "./errors";
 import { isSplit, partMesh, rotationOfQuaternion } from "./orientation";
@@ -54,7 +53,7 @@ export async function cutPart(wasm: ManifoldWasm, soup: TriangleSoup, rotation: 
     return fit.pieces.map((p) => ({ soup: applyOrientation(p.soup, p.orientation.rotation), volume: p.volume, rotation: p.orientation.rotation }));
   }
   const framed = applyOrientation(soup, rotation);
-  const whole = solidFromIndexed(wasm, weld(framed.positions));
+  const whole = solidFromIndexed(wasm, weldForSolid(framed));
   const n = cut.plane.normal;
   const l = Math.hypot(...n);
   try {

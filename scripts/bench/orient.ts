@@ -4,7 +4,7 @@
  * ~100,000 triangles ≤ 10 s. Prints figures; asserts nothing.
  */
 import Module from "manifold-3d";
-import { weld } from "@/lib/orient/geometry";
+import { weld } from "@/lib/mesh/weld";
 import { soupFromSolid, type Solid } from "@/lib/orient/manifold-bridge";
 import { rotatePoints, rotationForDown } from "@/lib/orient/rotation";
 import { searchOrientations } from "@/lib/orient/search";
@@ -52,7 +52,7 @@ runs.sort((a, b) => a - b);
 const searchMs = runs[1]!;
 
 // Side by side: the height field for every direction, as a naive search would do.
-const mesh = weld(bigSoup.positions);
+const mesh = weld(bigSoup);
 const t1 = performance.now();
 const sample = 8;
 for (let i = 0; i < sample; i++) {
