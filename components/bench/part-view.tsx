@@ -16,6 +16,7 @@ import { fieldErrorsOf, formValues, TextArea } from "./form-bits";
 import { queryKeys } from "@/lib/queries/keys";
 import { partQuery, type PartDetailWire } from "@/lib/queries/parts";
 import { FileDrop } from "./file-drop";
+import { MeshHealthPanel } from "./mesh-health";
 import { PartNumbers } from "./part-numbers";
 import { PartStatusPanel } from "./part-status";
 import { SendToWorkshop } from "@/components/plates/send-form";
@@ -140,6 +141,7 @@ export function PartView({ id, initial }: { id: number; initial: PartDetailWire 
       <div className="grid gap-8 lg:grid-cols-[1fr_22rem]">
         <div className="flex flex-col gap-6">
           <ViewerPanel d={d} />
+          <MeshHealthPanel d={d} />
           {d.canEdit ? <FileDrop target={{ kind: "version", partId: id }} /> : null}
           <PartStatusPanel d={d} />
           {split.data?.pieces.length ? (

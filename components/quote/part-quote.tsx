@@ -30,7 +30,7 @@ export function PartQuote({
   const problem = !a
     ? "Upload a mesh to see what this part costs."
     : !a.volume_reliable || !a.volume_mm3 || !a.area_mm2 || !a.size
-      ? "The mesh is not closed, so its volume and price cannot be worked out. Repair it and upload it again."
+      ? "The mesh is not a closed solid, so its volume and price cannot be worked out. Repair it above, or upload a fixed file."
       : !material
         ? `No price list for “${part.material}”.`
         : null;

@@ -9,3 +9,4 @@ export * from "./materials";
 export * from "./surface";
 export * from "./status";
 export * from "./roles";
+export * from "./mesh-health";

@@ -24,6 +24,7 @@ export const permissions = {
   "ledger:admin": ["admin"],
   "queue:send": ["member"],
   "queue:manage": ["operator", "admin"],
+  "parts:accept-mesh": ["operator", "admin"],
   "plates:view": ["member", "operator", "admin"],
   "plates:act": ["operator", "admin"],
   "insights:view": ["operator", "admin"],

@@ -7,6 +7,7 @@ import { allowedTargets, planTransition, type PartStatus } from "@/lib/rules/sta
 import type { PartInput, PartPatch, StatusChangeInput } from "@/lib/validation/assemblies";
 import { accessTo, ancestors, canEdit, itemsOf, listShares, requireEdit, subtreeIds, type Access } from "./assemblies";
 import { AppError } from "./errors";
+import { currentMeshHealth } from "./mesh-health";
 import { partEnvelope, partEnvelopes, workshopPrinters, type PlacedEnvelope } from "./part-envelope";
 import type { SessionUser } from "./session";
 import { getWorkshopSettings } from "./workshop";
@@ -220,6 +221,8 @@ export async function getPartDetail(user: SessionUser, partId: number) {
     fit: { printers: fit.printers, fits: fit.fits },
     /** Footprint and height as the part will lie on the bed (the chosen orientation, else the file as drawn). */
     placed,
+    /** Whether the current mesh is a closed solid, what is wrong in plain words, who accepted it, the repair that made it. */
+    health: current ? await currentMeshHealth(partId) : null,
     beds: fit.beds,
   };
 }
