@@ -28,6 +28,10 @@ export interface QuickMetrics {
   /** Vertices lowest and highest along the up axis (extreme points, reused for footprints). */
   lowVertex: number;
   highVertex: number;
+  /** Height of the lowest point along the up axis (the bed in the turned frame). */
+  lowest: number;
+  /** Facets on the bed (for the stance check). */
+  contactFacets: number[];
 }
 
 /**
@@ -53,6 +57,7 @@ export function quickMetrics(
   let overhangArea = 0, bedContactArea = 0, supportProxy = 0;
   const N = f.normals, C = f.centroids, A = f.areas;
   const R = f.reach;
+  const contactFacets: number[] = [];
   for (let t = 0; t < f.count; t++) {
     // n · down, with down = −up.
     const nd = -(ux * N[3 * t]! + uy * N[3 * t + 1]! + uz * N[3 * t + 2]!);
@@ -60,13 +65,28 @@ export function quickMetrics(
     const hc = ux * C[3 * t]! + uy * C[3 * t + 1]! + uz * C[3 * t + 2]!;
     const onBed = hc - R[t]! <= lo + bedEps && restsOnBed(nd, topOf(f, t, ux, uy, uz) - lo, bedEps);
     const a = A[t]!;
-    if (onBed) bedContactArea += a;
+    if (onBed) {
+      bedContactArea += a;
+      contactFacets.push(t);
+    }
     else if (isOverhang(nd, sinTheta, false)) {
       overhangArea += a;
       supportProxy += a * nd * (hc - lo);
     }
   }
-  return { overhangArea, bedContactArea, height: hi - lo, supportProxy, lowVertex, highVertex };
+  return { overhangArea, bedContactArea, height: hi - lo, supportProxy, lowVertex, highVertex, lowest: lo, contactFacets };
+}
+
+/** Print-frame x, y of the corners of the given facets, turned by m. */
+export function facetCornersXY(f: FacetData, facets: readonly number[], m: Mat3): number[] {
+  const v = f.vertices, out: number[] = [];
+  for (const t of facets) {
+    for (let k = 0; k < 3; k++) {
+      const i = f.indices[3 * t + k]! * 3;
+      out.push(m[0] * v[i]! + m[1] * v[i + 1]! + m[2] * v[i + 2]!, m[3] * v[i]! + m[4] * v[i + 1]! + m[5] * v[i + 2]!);
+    }
+  }
+  return out;
 }
 
 /**

@@ -102,7 +102,7 @@ async function evaluatePieces(ctx: Ctx, solids: Solid[]): Promise<{ pieces: Spli
   for (const s of solids) {
     const mesh = indexedFromSolid(s);
     const result = await searchOrientationsIndexed(mesh, ctx.pieceOpts);
-    pieces.push({ soup: { positions: soupFromIndexed(mesh.vertices, mesh.indices) }, volume: s.volume(), orientation: result.candidates[0]! });
+    pieces.push({ soup: { positions: soupFromIndexed(mesh.vertices, mesh.indices) }, volume: s.volume(), orientation: result.candidates[0] ?? result.original });
     area += s.surfaceArea();
   }
   return { pieces, area };
@@ -137,7 +137,7 @@ async function cutToFit(ctx: Ctx, whole: Solid, maxDepth: number, tick: (f: numb
     while (queue.length) {
       const item = queue.pop()!;
       const r = await searchOrientationsIndexed(indexedFromSolid(item.solid), ctx.pieceOpts);
-      if (r.candidates[0]!.fitsAny || item.depth >= maxDepth) {
+      if ((r.candidates[0] ?? r.original).fitsAny || item.depth >= maxDepth) {
         done.push(item.solid);
         continue;
       }
@@ -174,7 +174,7 @@ export async function splitUntilFits(wasm: ManifoldWasm, soup: TriangleSoup, opt
   const whole = solidFromIndexed(wasm, mesh);
   try {
     const first = await searchOrientationsIndexed(mesh, pieceOpts);
-    if (first.candidates[0]!.fitsAny) return null;
+    if ((first.candidates[0] ?? first.original).fitsAny) return null;
     const tick = makeTicker(options.signal, options.onProgress);
     const { solids, planes } = await cutToFit(ctx, whole, options.maxDepth ?? 6, tick);
     try {
@@ -201,7 +201,7 @@ export async function planSplits(wasm: ManifoldWasm, soup: TriangleSoup, options
     const wholeArea = whole.surfaceArea();
     const before = supportInFrame(mesh, sinTheta);
     const wholeSearch = await searchOrientationsIndexed(mesh, pieceOpts);
-    const partFits = !printers.length || wholeSearch.candidates[0]!.fitsAny;
+    const partFits = !printers.length || (wholeSearch.candidates[0] ?? wholeSearch.original).fitsAny;
     const screened = candidatePlanes(mesh, { maxPlanes: options.maxPlanes ?? 12, sinTheta, layerHeight: options.layerHeight });
     // Every plane is screened cheaply; only the most promising are cut with manifold-3d.
     const ranked = screenPlanes(mesh, screened, sinTheta).map((s) => s.plane);

@@ -79,6 +79,12 @@ export interface OrientationCandidate {
   fitsAny: boolean;
   /** Lower is better; see README for the formula. */
   score: number;
+  /** Rests on at least `contactRequired` mm² with its centre of mass over the contact (lib/rules/stability). */
+  stable: boolean;
+  contactRequired: number;
+  /** Named in words (lib/rules/orientation-names): label, and the turn from the drawing. */
+  label: string;
+  turn: string;
 }
 
 export interface OrientationResult {

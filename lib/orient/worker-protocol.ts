@@ -33,6 +33,10 @@ export interface CandidateView {
   fits: { printerId: string; fits: boolean }[];
   fitsAny: boolean;
   score: number;
+  stable: boolean;
+  contactRequired: number;
+  label: string;
+  turn: string;
   positions: Float32Array;
   overhangMask: Uint8Array;
 }

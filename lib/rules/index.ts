@@ -10,3 +10,5 @@ export * from "./surface";
 export * from "./status";
 export * from "./roles";
 export * from "./mesh-health";
+export * from "./stability";
+export * from "./orientation-names";

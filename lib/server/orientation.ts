@@ -5,7 +5,7 @@ import { partFiles, partOrientations, parts, partSplits, users, type Orientation
 import { readMesh, type TriangleSoup } from "@/lib/mesh";
 import { soupBounds, weld } from "@/lib/mesh/weld";
 import { applyOrientation, fitPrinters, matrixFromQuaternion, rotationFromMatrix, searchOrientations, supportVolumeHeightField, type OrientationCandidate, type Printer, type Quat, type Rotation } from "@/lib/orient";
-import { materialKeyOf, overhangSine, surfaceFigures } from "@/lib/rules";
+import { centreOfMass, isStable, materialKeyOf, nameOrientation, overhangSine, requiredContact, stanceOf, surfaceFigures } from "@/lib/rules";
 import type { OrientationPickInput, OrientationSearchInput } from "@/lib/validation/orientation";
 import { AppError } from "./errors";
 import { partAccess, requirePartEdit } from "./parts";
@@ -24,6 +24,11 @@ export interface OrientationFigures {
   supportVolume?: number;
   bedContactArea?: number;
   score?: number;
+  /** Rests on enough contact with its centre of mass over it (lib/rules/stability); named in words. */
+  stable?: boolean;
+  contactRequired?: number;
+  label?: string;
+  turn?: string;
 }
 
 export interface StoredOrientation {
@@ -60,6 +65,10 @@ export function figuresOf(c: OrientationCandidate): OrientationFigures {
     supportVolume: c.supportVolume,
     bedContactArea: c.bedContactArea,
     score: c.score,
+    stable: c.stable,
+    contactRequired: c.contactRequired,
+    label: c.label,
+    turn: c.turn,
   };
 }
 
@@ -161,6 +170,10 @@ export function measureRotation(soup: TriangleSoup, r: Rotation, layerHeightMm: 
   const surface = surfaceFigures(placed, { overhangDeg });
   const mesh = weld(placed);
   const support = supportVolumeHeightField(mesh.vertices, mesh.indices, { cellSize: cellFor(footprint), sinTheta: overhangSine(overhangDeg) });
+  const stance = stanceOf(mesh, IDENTITY_FRAME, centreOfMass(mesh));
+  const m = r.matrix;
+  const down = [-m[6] || 0, -m[7] || 0, -m[8] || 0];
+  const name = nameOrientation(down, false);
   return {
     source: "pick",
     height,
@@ -170,8 +183,15 @@ export function measureRotation(soup: TriangleSoup, r: Rotation, layerHeightMm: 
     overhangArea: surface.overhangArea,
     bedContactArea: surface.bedContactArea,
     supportVolume: support.volume,
+    // Without the search's best contact, the 25 mm² floor applies (or half the part's own contact when smaller).
+    stable: isStable(stance, surface.bedContactArea),
+    contactRequired: requiredContact(surface.bedContactArea),
+    label: name.label,
+    turn: name.turn,
   };
 }
+
+const IDENTITY_FRAME = [1, 0, 0, 0, 1, 0, 0, 0, 1] as const;
 
 async function store(partId: number, fileId: number, kind: OrientationKind, r: Rotation, figures: StoredOrientation["summary"], by: number | null): Promise<void> {
   const m = r.matrix;
@@ -209,7 +229,7 @@ export async function chooseOrientation(user: SessionUser, partId: number, input
   const suggested = await rowOf(partId, "suggested", mesh.fileId);
   const same = suggested?.summary.candidates?.find((c) => Math.abs(c.quaternion.reduce((s, v, i) => s + v * r.quaternion[i]!, 0)) > 1 - 1e-6);
   // The measured figures win over the search's (one bed-contact and overhang rule); the search's score stays.
-  const summary = same ? { ...same, ...figures, source: same.source } : { ...figures, source: input.kind === "original" ? ("original" as const) : ("pick" as const) };
+  const summary = same ? { ...same, ...figures, source: same.source, label: same.label ?? figures.label, stable: same.stable ?? figures.stable, contactRequired: same.contactRequired ?? figures.contactRequired } : { ...figures, source: input.kind === "original" ? ("original" as const) : ("pick" as const) };
   delete (summary as { candidates?: unknown }).candidates;
   await store(partId, mesh.fileId, "chosen", r, summary, user.id);
   return (await rowOf(partId, "chosen", mesh.fileId))!;

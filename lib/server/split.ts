@@ -66,7 +66,8 @@ export async function cutPart(wasm: ManifoldWasm, soup: TriangleSoup, rotation: 
       const out: CutPiece[] = [];
       for (const s of solids) {
         const pieceSoup = soupFromSolid(s);
-        const best = (await searchOrientations(pieceSoup, opts)).candidates[0]!;
+        const found = await searchOrientations(pieceSoup, opts);
+        const best = found.candidates[0] ?? found.original;
         out.push({ soup: applyOrientation(pieceSoup, best.rotation), volume: s.volume(), rotation: best.rotation });
       }
       return out;
