@@ -2,6 +2,7 @@
 // "Plan orientation": the search runs in the worker with progress and cancel; the best few are
 // shown side by side in 3D with their overhangs shaded, each with its figures and "Use this".
 import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { useRouter } from "next/navigation";
 import { useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { EmptyState, Notice } from "@/components/ui/notice";
@@ -73,6 +74,7 @@ function CandidateCard({ c, title, busy, onUse, beds }: { c: CandidateView; titl
 
 export function OrientationPanel({ p }: { p: PlannerPart }) {
   const { orient } = useOrientWorker();
+  const router = useRouter();
   const qc = useQueryClient();
   const [fraction, setFraction] = useState<number | null>(null);
   const [result, setResult] = useState<OrientJobResult | null>(null);
@@ -81,6 +83,8 @@ export function OrientationPanel({ p }: { p: PlannerPart }) {
   const use = useMutation({
     mutationFn: (c: CandidateView | "original") => pickOrientation(p.partId, c === "original" ? { kind: "original", fileId: p.fileId } : { kind: "rotation", fileId: p.fileId, quaternion: c.rotation.quaternion }),
     onSettled: () => Promise.all([qc.invalidateQueries({ queryKey: queryKeys.orientation.all }), qc.invalidateQueries({ queryKey: queryKeys.parts.all })]),
+    // The quote on the page is rendered by the server from the stored orientation: fetch it again.
+    onSuccess: () => router.refresh(),
   });
 
   const run = async () => {
@@ -110,7 +114,7 @@ export function OrientationPanel({ p }: { p: PlannerPart }) {
       )}
       {error ? <Notice tone="fail" title="The orientation search failed.">{error}</Notice> : null}
       {use.isError ? <Notice tone="fail" title="The orientation could not be saved.">{use.error.message}</Notice> : null}
-      {use.isSuccess ? <Notice tone="ok" title="Orientation saved. Packing and estimates use it from now on." /> : null}
+      {use.isSuccess ? <Notice tone="ok" title="Orientation saved. The 3D view, figures, fit, quote and packing use it from now on." /> : null}
       {result && result.candidates.length === 0 ? <EmptyState title="No orientation stands by itself">No way of laying this part rests on a face of the needed size with its centre of mass over it. Keep the file&apos;s own and ask the workshop about a brim or supports.</EmptyState> : null}
       {result ? (
         <ol aria-label="Ranked orientations" className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">

@@ -23,7 +23,7 @@ export function PartQuote({
   analysis: unknown;
   part: { material: string; layerHeightMm: number; walls: number; infillPercent: number };
   /** Footprint and height as the part will lie on the bed (the chosen orientation, else the file as drawn). */
-  placed: { footprint: [number, number]; height: number; source: "chosen" | "file" } | null;
+  placed: { footprint: [number, number]; height: number; source: "chosen" | "file"; supportVolumeMm3?: number } | null;
 }) {
   const a = readAnalysis(analysis);
   const material = materialKeyOf(part.material);
@@ -46,7 +46,7 @@ export function PartQuote({
   return (
     <div className="mt-6">
       <QuotePanel
-        title="Quote for one copy"
+        title={placed?.source === "chosen" ? "Quote for one copy, as it will print" : "Quote for one copy"}
         input={{
           volumeMm3: a.volume_mm3!,
           areaMm2: a.area_mm2!,
@@ -57,6 +57,8 @@ export function PartQuote({
           layerHeightMm: part.layerHeightMm,
           wallCount: part.walls,
           infillPercent: part.infillPercent,
+          supportVolumeMm3: placed?.supportVolumeMm3 || undefined,
+          supports: (placed?.supportVolumeMm3 ?? 0) > 0,
           material,
         }}
       />

@@ -3,6 +3,7 @@
  * best orientation, and ranks the cuts by fitting and by support saved. Also splits a part that fits
  * no printer, again and again, until every piece fits. Needs manifold-3d, passed in by the caller.
  */
+import { splitEarnsItsPlace } from "@/lib/rules/split";
 import type { IndexedMesh, TriangleSoup } from "@/lib/mesh/types";
 import { weld } from "@/lib/mesh/weld";
 import { withoutRepeatedCorners } from "@/lib/mesh/volume";
@@ -225,8 +226,8 @@ export async function planSplits(wasm: ManifoldWasm, soup: TriangleSoup, options
       const fit = await splitUntilFits(wasm, soup, { ...options, onProgress: (f) => options.onProgress?.(0.7 + 0.3 * f) });
       if (fit) out.push(fit);
     }
-    // Keep cuts that save support or make the part printable at all.
-    const useful = out.filter((c) => c.supportSaved > before * 0.01 || (!partFits && c.allPiecesFit));
+    // Keep cuts that earn their place (lib/rules/split): a real support saving, or a part made printable at all.
+    const useful = out.filter((c) => splitEarnsItsPlace(c, partFits));
     useful.sort(compareSplits);
     options.onProgress?.(1);
     return { volume, supportBefore: before, partFits, candidates: useful.slice(0, options.keep ?? 5), planesScreened: screened.length, planesCut: planes.length };

@@ -12,3 +12,4 @@ export * from "./roles";
 export * from "./mesh-health";
 export * from "./stability";
 export * from "./orientation-names";
+export * from "./split";

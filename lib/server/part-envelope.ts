@@ -9,6 +9,8 @@ import { listPrinterBeds, type PrinterBed } from "./printers";
 export interface PlacedEnvelope extends PartEnvelope {
   footprint: [number, number];
   source: "chosen" | "file";
+  /** Support to be filled in that orientation, mm³ (height-field estimate), when it was measured. */
+  supportVolumeMm3?: number;
 }
 
 /** The printer as lib/rules sees it. */
@@ -22,12 +24,17 @@ export async function workshopPrinters(): Promise<{ beds: PrinterBed[]; envelope
   return { beds, envelopes: beds.map(printerEnvelope) };
 }
 
+const supportOf = (summary: unknown): number | undefined => {
+  const s = (typeof summary === "string" ? JSON.parse(summary) : summary) as { supportVolume?: number } | null;
+  return typeof s?.supportVolume === "number" ? s.supportVolume : undefined;
+};
+
 /** Envelopes of several parts at once (parts without a mesh are left out). */
 export async function partEnvelopes(partIds: readonly number[]): Promise<Map<number, PlacedEnvelope>> {
   const out = new Map<number, PlacedEnvelope>();
   if (partIds.length === 0) return out;
   const rows = await db()
-    .select({ partId: parts.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, ox: partOrientations.footprintX, oy: partOrientations.footprintY, oh: partOrientations.heightMm })
+    .select({ partId: parts.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, ox: partOrientations.footprintX, oy: partOrientations.footprintY, oh: partOrientations.heightMm, summary: partOrientations.summary })
     .from(parts)
     .innerJoin(partFiles, eq(partFiles.id, parts.currentFileId))
     .leftJoin(partOrientations, and(eq(partOrientations.partId, parts.id), eq(partOrientations.fileId, parts.currentFileId), eq(partOrientations.kind, "chosen")))
@@ -36,7 +43,7 @@ export async function partEnvelopes(partIds: readonly number[]): Promise<Map<num
     out.set(
       r.partId,
       r.ox !== null && r.oy !== null && r.oh !== null
-        ? { footprint: [r.ox, r.oy], height: r.oh, source: "chosen" }
+        ? { footprint: [r.ox, r.oy], height: r.oh, source: "chosen", supportVolumeMm3: supportOf(r.summary) }
         : { footprint: [r.sizeX, r.sizeY], height: r.sizeZ, source: "file" },
     );
   }

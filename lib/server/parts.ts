@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { db } from "@/db";
-import { assemblies, assemblyShares, partFiles, partInstances, parts, statusEvents, users } from "@/db/schema";
+import { assemblies, assemblyShares, partFiles, partInstances, parts, partSplits, statusEvents, users } from "@/db/schema";
 import { fitPrinters, materialKeyOf } from "@/lib/rules";
 import { allowedTargets, planTransition, type PartStatus } from "@/lib/rules/status";
 import type { PartInput, PartPatch, StatusChangeInput } from "@/lib/validation/assemblies";
@@ -280,6 +280,11 @@ export async function getAssemblyDetail(user: SessionUser, id: number) {
   const itemRows = await itemsOf(ids);
   const { beds, envelopes } = await workshopPrinters();
   const placedOf = await partEnvelopes(partRows.map((p) => p.id));
+  // A part split into pieces is printed as its pieces: it leaves the quote, the BOM and sending.
+  const splitRows = partRows.length
+    ? await d.select({ parentId: partSplits.parentPartId, n: sql<number>`COUNT(*)` }).from(partSplits).where(inArray(partSplits.parentPartId, partRows.map((p) => p.id))).groupBy(partSplits.parentPartId)
+    : [];
+  const splitInto = new Map(splitRows.map((r) => [r.parentId, Number(r.n)]));
   const partsOut = partRows.map((p) => {
     const mine = inst.filter((i) => i.partId === p.id);
     // The driver may hand JSON_EXTRACT back parsed or as text, depending on the column type it reports.
@@ -287,7 +292,7 @@ export async function getAssemblyDetail(user: SessionUser, id: number) {
     const placed = placedOf.get(p.id);
     const fits = placed && beds.length ? fitPrinters(placed, envelopes, materialKeyOf(p.material), p.material).filter((f) => f.fits).length : null;
     const { size: _s, ...rest } = p;
-    return { ...rest, size, statuses: mine.map((i) => i.status), reprintsPending: mine.filter((i) => i.reprints > 0 && i.status !== "printed" && i.status !== "accepted").length, fittingPrinters: fits };
+    return { ...rest, size, placed: placed ?? null, splitInto: splitInto.get(p.id) ?? 0, statuses: mine.map((i) => i.status), reprintsPending: mine.filter((i) => i.reprints > 0 && i.status !== "printed" && i.status !== "accepted").length, fittingPrinters: fits };
   });
   const nodeIds = (n: number) => new Set(subtreeIds(info.tree, n));
   const nodes = ids.map((n) => {
@@ -298,8 +303,8 @@ export async function getAssemblyDetail(user: SessionUser, id: number) {
   });
   const blockers = {
     failed: partsOut.filter((p) => p.reprintsPending > 0).map((p) => ({ id: p.id, name: p.name, count: p.reprintsPending })),
-    notUploaded: partsOut.filter((p) => p.currentFileId === null).map((p) => ({ id: p.id, name: p.name })),
-    notFitting: partsOut.filter((p) => p.fittingPrinters === 0).map((p) => ({ id: p.id, name: p.name })),
+    notUploaded: partsOut.filter((p) => p.currentFileId === null && !p.splitInto).map((p) => ({ id: p.id, name: p.name })),
+    notFitting: partsOut.filter((p) => p.fittingPrinters === 0 && !p.splitInto).map((p) => ({ id: p.id, name: p.name })),
     hardwareNotInHand: itemRows.filter((i) => i.status !== "in_hand").map((i) => ({ id: i.id, name: i.name, status: i.status })),
   };
   return {
@@ -330,12 +335,14 @@ const csvCell = (v: string | number | null) => {
 export async function bomCsv(user: SessionUser, id: number): Promise<{ filename: string; csv: string }> {
   const det = await getAssemblyDetail(user, id);
   const where = new Map(det.nodes.map((n) => [n.id, n.name]));
-  const rows: (string | number | null)[][] = [["Type", "Name", "Sub-assembly", "Quantity", "Material or source", "Colour", "Status", "Unit price (cents)", "Due date"]];
-  for (const p of det.parts) {
-    rows.push(["printed part", p.name, where.get(p.assemblyId) ?? "", p.quantity, p.material, p.colour, summarise(p.statuses), null, null]);
+  const rows: (string | number | null)[][] = [["Type", "Name", "Sub-assembly", "Quantity", "Material or source", "Colour", "Status", "Unit price (cents)", "Due date", "Size as printed (mm)"]];
+  // A split part is listed as its pieces only.
+  for (const p of det.parts.filter((x) => !x.splitInto)) {
+    const size = p.placed ? [p.placed.footprint[0], p.placed.footprint[1], p.placed.height].map((v) => Math.round(v * 10) / 10).join(" × ") : null;
+    rows.push(["printed part", p.name, where.get(p.assemblyId) ?? "", p.quantity, p.material, p.colour, summarise(p.statuses), null, null, size]);
   }
   for (const i of det.items) {
-    rows.push([i.kind === "hardware" ? "bought hardware" : "made elsewhere", i.name, where.get(i.assemblyId) ?? "", i.quantity, i.source, "", i.status.replace("_", " "), i.unitPriceCents, i.dueDate]);
+    rows.push([i.kind === "hardware" ? "bought hardware" : "made elsewhere", i.name, where.get(i.assemblyId) ?? "", i.quantity, i.source, "", i.status.replace("_", " "), i.unitPriceCents, i.dueDate, null]);
   }
   const csv = rows.map((r) => r.map(csvCell).join(",")).join("\r\n") + "\r\n";
   const slug = det.assembly.name.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "assembly";

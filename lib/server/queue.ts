@@ -12,7 +12,7 @@ import { MEMBER_MAX_PRIORITY, type QueuePriorityInput, type QueueSendInput } fro
 import { AppError } from "./errors";
 import { SPOOL_MARGIN } from "./materials";
 import { partAccess, requirePartEdit } from "./parts";
-import { effectiveGeometry, jsonOf } from "./orientation";
+import { effectiveGeometry, isSplit, jsonOf } from "./orientation";
 import { buildPlanningInput, densities, densityOf, estimateInstance, instanceGeometry, materialKeyOf, planPrinterShapes, timingPrinter, type PartForEstimate } from "./planner";
 import { currentPricing, makeQuote, moveInstances, plateLabel } from "./plates";
 import type { SessionUser } from "./session";
@@ -35,6 +35,7 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
     .leftJoin(partFiles, eq(partFiles.id, parts.currentFileId))
     .where(eq(parts.id, input.partId));
   if (!part) throw new AppError("not_found", "No such part, or it is not shared with you.");
+  if (await isSplit(input.partId)) throw invalid("This part was split into pieces: send the pieces instead.", "partId");
   if (part.fileId === null || part.sizeX === null || part.sizeY === null || part.sizeZ === null) throw invalid("This part has no mesh yet: upload one before sending it to the workshop.", "partId");
   // A mesh that is not a closed solid is not sent, unless an operator accepted it (lib/rules/mesh-health).
   const health = meshSendCheck(jsonOf<HealthFigures>(part.analysis), part.acceptedBrokenBy === null ? null : String(part.acceptedBrokenBy));

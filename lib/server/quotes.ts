@@ -188,7 +188,7 @@ export interface StoredAnalysis {
 export function partQuoteInput(
   analysis: unknown,
   part: { material: string; layerHeightMm: number; walls: number; infillPercent: number },
-  placed?: { footprint: readonly [number, number]; height: number } | null,
+  placed?: { footprint: readonly [number, number]; height: number; supportVolumeMm3?: number } | null,
 ): { input: QuotePartInput } | { problem: string } {
   const a = readAnalysis(analysis);
   if (!a) return { problem: "no mesh uploaded" };
@@ -207,7 +207,9 @@ export function partQuoteInput(
       layerHeightMm: part.layerHeightMm,
       wallCount: part.walls,
       infillPercent: part.infillPercent,
-      supports: false,
+      // The chosen orientation's support estimate counts in grams and time.
+      supportVolumeMm3: placed?.supportVolumeMm3 || undefined,
+      supports: (placed?.supportVolumeMm3 ?? 0) > 0,
       material,
     },
   };
@@ -225,7 +227,8 @@ export async function quoteStoredAssembly(user: SessionUser, assemblyId: number)
   const placed = await partEnvelopes(detail.parts.map((p) => p.id));
   const parts: QuoteAssemblyInput["parts"] = [];
   const unpriced: { name: string; reason: string }[] = [];
-  for (const p of detail.parts) {
+  // A split part is priced as its pieces only.
+  for (const p of detail.parts.filter((x) => !x.splitInto)) {
     const r = partQuoteInput(files.find((f) => f.id === p.currentFileId)?.analysis, p, placed.get(p.id));
     if ("problem" in r) unpriced.push({ name: p.name, reason: r.problem });
     else parts.push({ ...r.input, label: p.name, quantity: p.quantity });

@@ -10,7 +10,11 @@ import { analyzeSoup, readMesh, writeStl } from "@/lib/mesh";
 import { solidFromSoup } from "@/lib/orient";
 import { createAssembly, shareAssembly } from "@/lib/server/assemblies";
 import { AppError } from "@/lib/server/errors";
-import { createPart, getPartDetail } from "@/lib/server/parts";
+import { bomCsv, createPart, getPartDetail } from "@/lib/server/parts";
+import { sendToQueue } from "@/lib/server/queue";
+import { quoteStoredAssembly } from "@/lib/server/quotes";
+import { queueSendInput } from "@/lib/validation/queue";
+import { seedPrinters } from "@/db/seed/printers";
 import type { SessionUser } from "@/lib/server/session";
 import { blobStore, setBlobStore } from "@/lib/server/storage";
 import { acceptSplit, getSplitLinks } from "@/lib/server/split";
@@ -113,6 +117,22 @@ describe("accepting a split", () => {
     // The pieces are part of the assembly, each with its own mesh to view.
     const detail = await getPartDetail(owner, res.pieces[0]!.partId);
     expect(detail.current?.id).toBe(res.pieces[0]!.fileId);
+  });
+
+  it("the parent leaves the BOM, the assembly quote and sending; its pieces take its place", async () => {
+    await seedPrinters(db());
+    const { csv } = await bomCsv(owner, assemblyId);
+    const names = csv.split("\r\n").slice(1).filter(Boolean).map((l) => l.split(",")[1]);
+    expect(names).not.toContain("Hook");
+    expect(names.filter((n) => n?.startsWith("Hook – piece"))).toHaveLength(2);
+    const q = await quoteStoredAssembly(owner, assemblyId);
+    const labels = q.priced?.lines.map((l) => l.label) ?? [];
+    expect(labels).not.toContain("Hook");
+    expect(labels.filter((l) => l?.startsWith("Hook – piece"))).toHaveLength(2);
+    expect(q.unpriced.map((u) => u.name)).not.toContain("Hook");
+    const e = await sendToQueue(owner, queueSendInput.parse({ partId, quantity: 1, wishedDate: "", priority: 0 })).catch((x: unknown) => x);
+    expect(e).toBeInstanceOf(AppError);
+    expect((e as AppError).message).toMatch(/split into pieces/);
   });
 
   it("cannot split the same part twice", async () => {
