@@ -4,6 +4,7 @@ import { db } from "@/db";
 import { partFiles, partOrientations, parts, partSplits, users, type OrientationKind } from "@/db/schema";
 import { readMesh, type TriangleSoup } from "@/lib/mesh";
 import { soupBounds, weld } from "@/lib/mesh/weld";
+import { largestContact } from "@/lib/orient/contact";
 import { applyOrientation, fitPrinters, matrixFromQuaternion, rotationFromMatrix, searchOrientations, supportVolumeHeightField, type OrientationCandidate, type Printer, type Quat, type Rotation } from "@/lib/orient";
 import { centreOfMass, isStable, materialKeyOf, nameOrientation, overhangSine, requiredContact, stanceOf, surfaceFigures } from "@/lib/rules";
 import type { OrientationPickInput, OrientationSearchInput } from "@/lib/validation/orientation";
@@ -171,9 +172,10 @@ export function measureRotation(soup: TriangleSoup, r: Rotation, layerHeightMm: 
   const mesh = weld(placed);
   const support = supportVolumeHeightField(mesh.vertices, mesh.indices, { cellSize: cellFor(footprint), sinTheta: overhangSine(overhangDeg) });
   const stance = stanceOf(mesh, IDENTITY_FRAME, centreOfMass(mesh));
+  const best = Math.max(largestContact(mesh), stance.contactArea);
   const m = r.matrix;
   const down = [-m[6] || 0, -m[7] || 0, -m[8] || 0];
-  const name = nameOrientation(down, false);
+  const name = nameOrientation(down, stance.contactArea > 0 && stance.contactArea >= best * 0.999);
   return {
     source: "pick",
     height,
@@ -183,9 +185,9 @@ export function measureRotation(soup: TriangleSoup, r: Rotation, layerHeightMm: 
     overhangArea: surface.overhangArea,
     bedContactArea: surface.bedContactArea,
     supportVolume: support.volume,
-    // Without the search's best contact, the 25 mm² floor applies (or half the part's own contact when smaller).
-    stable: isStable(stance, surface.bedContactArea),
-    contactRequired: requiredContact(surface.bedContactArea),
+    // Judged against the largest contact the part can give, as the search judges it.
+    stable: isStable(stance, best),
+    contactRequired: requiredContact(best),
     label: name.label,
     turn: name.turn,
   };
