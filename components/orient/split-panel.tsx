@@ -11,6 +11,7 @@ import type { Quat } from "@/lib/orient/rotation";
 import type { SplitCandidateView, SplitJobResult } from "@/lib/orient/worker-protocol";
 import { queryKeys } from "@/lib/queries/keys";
 import { acceptSplitCall } from "@/lib/queries/orientation";
+import { DEFAULT_PEG_CLEARANCE_MM, PEG_DEPTH_MM, PEG_DIAMETER_MM } from "@/lib/orient/pegs";
 import { splitSaving, SPLIT_MIN_SAVED_MM3, SPLIT_MIN_SAVED_SHARE } from "@/lib/rules/split";
 import { fileBytes, mm, plannerPrinters } from "./format";
 import { Progress, type PlannerPart } from "./orientation-panel";
@@ -79,10 +80,17 @@ export function SplitPanel({ p, quaternion }: { p: PlannerPart; quaternion: Quat
   const [plan, setPlan] = useState<SplitJobResult | null>(null);
   const [pick, setPick] = useState(0);
   const [error, setError] = useState<string | null>(null);
+  const [pegs, setPegs] = useState(true);
+  const [clearance, setClearance] = useState(String(DEFAULT_PEG_CLEARANCE_MM));
   const cancelRef = useRef<() => void>(() => {});
   const accept = useMutation({
     mutationFn: (c: SplitCandidateView) =>
-      acceptSplitCall(p.partId, { fileId: p.fileId, quaternion, cut: c.kind === "plane" && c.planes[0] ? { kind: "plane", plane: { normal: c.planes[0].normal, offset: c.planes[0].offset } } : { kind: "to-fit" } }),
+      acceptSplitCall(p.partId, {
+        fileId: p.fileId,
+        quaternion,
+        cut: c.kind === "plane" && c.planes[0] ? { kind: "plane", plane: { normal: c.planes[0].normal, offset: c.planes[0].offset } } : { kind: "to-fit" },
+        ...(pegs && c.kind === "plane" ? { pegs: { clearanceMm: Number(clearance) } } : {}),
+      }),
     onSuccess: () => setPlan(null),
     onSettled: () => Promise.all([qc.invalidateQueries({ queryKey: queryKeys.orientation.all }), qc.invalidateQueries({ queryKey: queryKeys.parts.all }), qc.invalidateQueries({ queryKey: queryKeys.assemblies.all })]),
   });
@@ -142,6 +150,21 @@ export function SplitPanel({ p, quaternion }: { p: PlannerPart; quaternion: Quat
             </tbody>
           </table>
           {chosen ? <Preview c={chosen} /> : null}
+          {chosen?.kind === "plane" ? (
+            <fieldset className="flex flex-wrap items-center gap-3 text-sm">
+              <legend className="sr-only">Registration pegs</legend>
+              <label className="flex items-center gap-1">
+                <input type="checkbox" checked={pegs} onChange={(e) => setPegs(e.target.checked)} />
+                Add registration pegs and matching holes on the cut face
+              </label>
+              <label className="flex items-center gap-1">
+                Clearance
+                <input type="number" step="0.05" min="0" max="1" className="w-16 rounded border border-rule bg-sheet px-1 text-right" value={clearance} onChange={(e) => setClearance(e.target.value)} disabled={!pegs} aria-describedby="peg-hint" />
+                mm
+              </label>
+              <span id="peg-hint" className="text-xs text-ink-soft">{PEG_DIAMETER_MM} mm pegs, {PEG_DEPTH_MM} mm into each piece; the holes are wider and deeper by the clearance ({DEFAULT_PEG_CLEARANCE_MM} mm suits most printers).</span>
+            </fieldset>
+          ) : null}
           {chosen ? (
             <div className="flex items-center gap-3">
               <Button type="button" disabled={accept.isPending} onClick={() => accept.mutate(chosen)}>{accept.isPending ? "Cutting on the server…" : "Accept split"}</Button>

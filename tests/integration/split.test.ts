@@ -19,6 +19,7 @@ import type { SessionUser } from "@/lib/server/session";
 import { blobStore, setBlobStore } from "@/lib/server/storage";
 import { acceptSplit, getSplitLinks } from "@/lib/server/split";
 import { receiveUpload } from "@/lib/server/uploads";
+import { box } from "../fixtures/meshes";
 import { loadWasm, tShape } from "../unit/orient/fixtures";
 
 const root = mkdtempSync(path.join(tmpdir(), "pw-split-"));
@@ -133,6 +134,18 @@ describe("accepting a split", () => {
     const e = await sendToQueue(owner, queueSendInput.parse({ partId, quantity: 1, wishedDate: "", priority: 0 })).catch((x: unknown) => x);
     expect(e).toBeInstanceOf(AppError);
     expect((e as AppError).message).toMatch(/split into pieces/);
+  });
+
+  it("adds registration pegs and holes on request: the pieces sum to the part less the clearance volume", async () => {
+    // A 40 × 30 × 60 block cut across at 30 mm: two pegs (5 mm, 4 mm deep) and two holes 0.3 mm wider and deeper.
+    const blockId = (await createPart(owner, assemblyId, { name: "Block", quantity: 1, material: "PLA", colour: "", notes: "" })).id;
+    const blockFile = (await receiveUpload(owner, blockId, body(writeStl(box(40, 30, 60))), { name: "block.stl", units: "mm" })).fileId;
+    const res = await acceptSplit(owner, blockId, { fileId: blockFile, quaternion: IDENTITY, cut: { kind: "plane", plane: { normal: [0, 0, 1], offset: 30 } }, pegs: { clearanceMm: 0.3 } });
+    expect(res.pieces).toHaveLength(2);
+    const prism32 = (r: number, h: number) => 16 * r * r * Math.sin((2 * Math.PI) / 32) * h; // regular 32-gon prism (closed form)
+    const clearance = 2 * (prism32(2.5 + 0.3, 4 + 0.3) - prism32(2.5, 4));
+    const sum = res.pieces.reduce((s, p) => s + p.volumeMm3, 0);
+    expect(Math.abs(sum + clearance - 72_000) / 72_000).toBeLessThan(0.001);
   });
 
   it("cannot split the same part twice", async () => {
