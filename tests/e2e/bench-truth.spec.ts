@@ -4,7 +4,7 @@
 // and the BOM.
 import { readFile } from "node:fs/promises";
 import { expect, test, type Page } from "@playwright/test";
-import { writeStl } from "../../lib/mesh";
+import { readMesh, writeStl } from "../../lib/mesh";
 import { box, flipTriangles } from "../fixtures/meshes";
 import { loadWasm, tShape } from "../unit/orient/fixtures";
 import { authFile } from "./helpers";
@@ -124,4 +124,42 @@ test("after a split the assembly quote and the BOM count the pieces only", async
   const csv = await readFile((await download.path())!, "utf8");
   expect(csv).not.toContain("printed part,hook,");
   expect(csv.match(/printed part,hook – piece \d of 2,/g)).toHaveLength(2);
+});
+
+test.describe("a plate", () => {
+  test.use({ storageState: authFile("operator") });
+
+  test("the 3D view and the bed from above come from the same placement numbers", async ({ page }) => {
+    test.setTimeout(120_000);
+    const board = (await (await page.request.get("/api/queue/board")).json()) as { lanes: { plates: { id: number; status: string }[] }[] };
+    const plateId = board.lanes.flatMap((l) => l.plates).find((p) => p.status === "planned" || p.status === "printing")?.id;
+    test.skip(!plateId, "the seed has no live plate");
+    await page.goto(`/plates/${plateId}`);
+    const svg = page.getByRole("img", { name: /^Bed of .* seen from above/ });
+    await expect(svg).toBeVisible();
+    // The part rectangles of the drawing (after the bed and the dashed margin), in bed millimetres.
+    const rects = (await svg.locator("g > g > rect").evaluateAll((els) => els.map((e) => ["x", "y", "width", "height"].map((k) => Number(e.getAttribute(k))))))
+      .map(([x, y, w, d]) => [x!, y!, x! + w!, y! + d!]);
+    expect(rects.length).toBeGreaterThan(0);
+    // The 3D view draws the plate's 3MF on the bed in its own coordinates: each object's footprint must be a rectangle of the drawing.
+    const res = await page.request.get(`/api/plates/${plateId}/3mf`);
+    expect(res.status()).toBe(200);
+    const back = readMesh(new Uint8Array(await res.body()), { filename: "plate.3mf" });
+    const boxes = back.parts!.map((part) => {
+      const pos = back.soup.positions.subarray(part.firstTriangle * 9, (part.firstTriangle + part.triangleCount) * 9);
+      const lo = [Infinity, Infinity, Infinity], hi = [-Infinity, -Infinity, -Infinity];
+      for (let i = 0; i < pos.length; i++) {
+        lo[i % 3] = Math.min(lo[i % 3]!, pos[i]!);
+        hi[i % 3] = Math.max(hi[i % 3]!, pos[i]!);
+      }
+      expect(lo[2]).toBeCloseTo(0, 3); // resting on the bed
+      return [lo[0]!, lo[1]!, hi[0]!, hi[1]!];
+    });
+    const order = (a: number[], b: number[]) => Math.round(a[0]!) - Math.round(b[0]!) || Math.round(a[1]!) - Math.round(b[1]!);
+    rects.sort(order);
+    boxes.sort(order);
+    expect(boxes.length).toBe(rects.length);
+    boxes.forEach((b, i) => b.forEach((v, k) => expect(v).toBeCloseTo(rects[i]![k]!, 1)));
+    await expect(page.locator("section[aria-labelledby='three-h'] canvas")).toBeVisible({ timeout: 30_000 });
+  });
 });
