@@ -1,7 +1,10 @@
 // A plate's 3MF holds each copy turned into its chosen orientation: a post drawn standing 60 mm tall
 // on a printer 40 mm high fits only lying down, is planned lying down, and is exported lying down,
-// resting on the bed (lowest z = 0) at the plan's position. Read back with lib/mesh's 3MF reader.
-import { mkdtempSync, rmSync } from "node:fs";
+// resting on the bed (lowest z = 0) at the plan's position. Read back with lib/mesh's 3MF reader and,
+// where Debian's lib3mf-dev is installed, with the 3MF Consortium's reference library through a small
+// reader built here (tests/support/lib3mf-dump.cpp).
+import { execFileSync } from "node:child_process";
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { and, eq } from "drizzle-orm";
@@ -24,6 +27,19 @@ const root = mkdtempSync(path.join(tmpdir(), "pw-plate-orient-"));
 process.env.STORAGE_DIR = root;
 const body = (b: Uint8Array) => new ReadableStream<Uint8Array>({ start(c) { c.enqueue(b); c.close(); } });
 let member: SessionUser, operator: SessionUser, printerId = 0;
+const exported: { bytes: Uint8Array; items: { x: number; y: number; rotated: number }[] }[] = [];
+
+/** Builds the lib3mf reader once; null when the library or a C++ compiler is missing. */
+function lib3mfReader(): string | null {
+  if (!existsSync("/usr/include/lib3mf/Model/COM/NMR_DLLInterfaces.h")) return null;
+  const out = path.join(root, "lib3mf-dump");
+  try {
+    execFileSync("c++", ["-O1", "-o", out, path.resolve(__dirname, "../support/lib3mf-dump.cpp"), "-I/usr/include/lib3mf", "-l3MF"], { stdio: "pipe" });
+    return out;
+  } catch {
+    return null;
+  }
+}
 
 async function user(email: string, role: SessionUser["role"]): Promise<SessionUser> {
   await db().insert(users).ignore().values({ email, name: email.split("@")[0]!, role, passwordHash: "x" });
@@ -64,7 +80,9 @@ it("exports each copy turned as chosen, resting on the bed where the plan put it
   let copies = 0;
   for (const plate of planned) {
     const items = await db().select({ x: plateItems.x, y: plateItems.y, rotated: plateItems.rotated }).from(plateItems).where(eq(plateItems.plateId, plate.id)).orderBy(plateItems.id);
-    const back = readMesh((await plate3mf(operator, plate.id)).bytes, { filename: "plate.3mf" });
+    const { bytes } = await plate3mf(operator, plate.id);
+    exported.push({ bytes, items });
+    const back = readMesh(bytes, { filename: "plate.3mf" });
     expect(back.parts?.length).toBe(items.length);
     for (const [k, part] of back.parts!.entries()) {
       const pos = back.soup.positions.subarray(part.firstTriangle * 9, (part.firstTriangle + part.triangleCount) * 9);
@@ -81,6 +99,32 @@ it("exports each copy turned as chosen, resting on the bed where the plan put it
       expect(lo[1]).toBeCloseTo(it.y, 3);
       expect(hi[0]! - lo[0]!).toBeCloseTo(w, 3);
       expect(hi[1]! - lo[1]!).toBeCloseTo(d, 3);
+      copies++;
+    }
+  }
+  expect(copies).toBe(3);
+});
+
+it("reads the same with the 3MF Consortium's reference library (lib3mf)", (ctx) => {
+  const reader = lib3mfReader();
+  if (!reader) ctx.skip(); // Debian's lib3mf-dev is not installed here
+  expect(exported.length).toBeGreaterThan(0);
+  let copies = 0;
+  for (const [n, plate] of exported.entries()) {
+    const file = path.join(root, `plate-${n}.3mf`);
+    writeFileSync(file, plate.bytes);
+    const lines = execFileSync(reader!, [file], { encoding: "utf8" }).trim().split("\n");
+    expect(lines.length).toBe(plate.items.length); // one build item per copy
+    for (const [k, line] of lines.entries()) {
+      const [, x0, y0, z0, x1, y1, z1] = line.split(" ").map(Number);
+      const it = plate.items[k]!;
+      const [w, d] = it.rotated ? [20, 60] : [60, 20];
+      expect(x0).toBeCloseTo(it.x, 3);
+      expect(y0).toBeCloseTo(it.y, 3);
+      expect(z0).toBeCloseTo(0, 3);
+      expect(x1! - x0!).toBeCloseTo(w, 3);
+      expect(y1! - y0!).toBeCloseTo(d, 3);
+      expect(z1! - z0!).toBeCloseTo(10, 3);
       copies++;
     }
   }
