@@ -2,7 +2,7 @@ import nextVitals from "eslint-config-next/core-web-vitals";
 import nextTs from "eslint-config-next/typescript";
 
 // The computation core stays framework-free: it runs in the browser worker, on the server and in CLIs.
-const pureCore = ["lib/mesh/**", "lib/plan/**", "lib/estimate/**", "lib/orient/**"];
+const pureCore = ["lib/mesh/**", "lib/plan/**", "lib/estimate/**", "lib/orient/**", "lib/rules/**"];
 
 const config = [
   { ignores: [".next/**", "node_modules/**", ".data/**", "drizzle/**", "test-results/**", "playwright-report/**", "next-env.d.ts", "tests/e2e/.auth/**"] },

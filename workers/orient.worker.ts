@@ -16,7 +16,8 @@ function view(c: OrientationCandidate, soup: { positions: Float32Array }, o: Ori
   return {
     down: c.down, source: c.source, rotation: c.rotation, overhangArea: c.overhangArea, supportVolume: c.supportVolume, height: c.height, layers: c.layers,
     bedContactArea: c.bedContactArea, footprint: c.footprint, fits: c.fits.map((f) => ({ printerId: f.printerId, fits: f.fits })), fitsAny: c.fitsAny, score: c.score,
-    positions: turned.positions, overhangMask: overhangMaskFor(turned.positions, o.overhangAngle, o.layerHeight),
+    stable: c.stable, contactRequired: c.contactRequired, label: c.label, turn: c.turn,
+    positions: turned.positions, overhangMask: overhangMaskFor(turned.positions, o.overhangAngle),
   };
 }
 

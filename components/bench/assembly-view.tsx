@@ -108,8 +108,8 @@ export function AssemblyView({ id, initial, defaults }: { id: number; initial: A
                         <td className="px-3 py-2 text-ink-soft">{where.get(p.assemblyId)}</td>
                         <td className="num px-3 py-2">{p.quantity}</td>
                         <td className="px-3 py-2">{p.material}{p.colour ? `, ${p.colour}` : ""}</td>
-                        <td className="num px-3 py-2">{p.size ? `${p.size.map((x) => x.toFixed(1)).join(" × ")} mm` : "not uploaded"}</td>
-                        <td className="px-3 py-2"><StatusSummary statuses={p.statuses} /></td>
+                        <td className="num px-3 py-2">{p.placed ? `${[p.placed.footprint[0], p.placed.footprint[1], p.placed.height].map((x) => (x ?? 0).toFixed(1)).join(" × ")} mm${p.placed.source === "chosen" ? " as printed" : ""}` : "not uploaded"}</td>
+                        <td className="px-3 py-2">{p.splitInto ? <span className="text-ink-soft">Split into {p.splitInto} pieces (printed as the pieces)</span> : <StatusSummary statuses={p.statuses} />}</td>
                       </tr>
                     ))}
                   </tbody>

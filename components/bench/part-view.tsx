@@ -1,95 +1,24 @@
 "use client";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import Link from "next/link";
-import { useEffect, useMemo, useState, type FormEvent } from "react";
-import { useMeshWorker } from "@/components/mesh/use-mesh-worker";
+import { useState, type FormEvent } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, TextInput } from "@/components/ui/field";
-import { EmptyState, Notice } from "@/components/ui/notice";
+import { Notice } from "@/components/ui/notice";
 import { PageHeader } from "@/components/ui/page-header";
-import { problemEdges } from "@/components/viewer/problem-edges";
-import { Viewer } from "@/components/viewer/viewer";
 import type { AnalysisJson } from "@/lib/mesh/json";
-import type { ViewerArrays } from "@/lib/mesh/worker-protocol";
 import { sendJson } from "@/lib/queries/assemblies";
 import { fieldErrorsOf, formValues, TextArea } from "./form-bits";
 import { queryKeys } from "@/lib/queries/keys";
 import { partQuery, type PartDetailWire } from "@/lib/queries/parts";
 import { FileDrop } from "./file-drop";
+import { PrintedFigures, ViewerPanel } from "./part-viewer";
+import { MeshHealthPanel } from "./mesh-health";
 import { PartNumbers } from "./part-numbers";
 import { PartStatusPanel } from "./part-status";
 import { SendToWorkshop } from "@/components/plates/send-form";
 import { splitLinksQuery } from "@/lib/queries/orientation";
 import { LIVE_POLL_MS } from "@/lib/queries/queue";
-
-/** Fetches the stored mesh and reads it in the worker, so the page's thread never parses. */
-function useStoredMesh(fileId: number | null, units: "mm" | "in") {
-  const { analyze } = useMeshWorker();
-  const [state, setState] = useState<{ id: number; arrays?: ViewerArrays; error?: string } | null>(null);
-  useEffect(() => {
-    if (fileId === null) return;
-    let cancel = () => {};
-    let stop = false;
-    fetch(`/api/files/${fileId}`)
-      .then((r) => (r.ok ? r.arrayBuffer() : Promise.reject(new Error(`the file could not be fetched (${r.status})`))))
-      .then((buf) => {
-        if (stop) return;
-        const call = analyze(buf, { units });
-        cancel = call.cancel;
-        return call.promise.then((res) => !stop && setState({ id: fileId, arrays: res.arrays }));
-      })
-      .catch((e: Error) => !stop && setState({ id: fileId, error: e.message }));
-    return () => {
-      stop = true;
-      cancel();
-    };
-  }, [fileId, units, analyze]);
-  return state && state.id === fileId ? state : null;
-}
-
-function ViewerPanel({ d }: { d: PartDetailWire }) {
-  const cur = d.current;
-  const mesh = useStoredMesh(cur?.id ?? null, (cur?.units ?? "mm") as "mm" | "in");
-  const [showProblems, setShowProblems] = useState(false);
-  const fitting = d.fit.fits.filter((f) => f.fits);
-  const [bedId, setBedId] = useState<number | null>(null);
-  const beds = d.fit.fits;
-  const arrays = mesh?.arrays;
-  const edges = useMemo(() => (arrays ? problemEdges(arrays.positions) : new Float32Array()), [arrays]);
-  if (!cur) return <EmptyState title="No mesh yet">Upload an STL or 3MF below to see the part in 3D.</EmptyState>;
-  const bedPick = beds.find((b) => b.printerId === bedId) ?? fitting[0] ?? beds[0];
-  const bed = bedPick ? (d.beds.find((b) => b.id === bedPick.printerId) ?? null) : null;
-  return (
-    <div className="flex flex-col gap-2">
-      <div className="h-[26rem] overflow-hidden rounded-lg border border-rule" data-testid="part-viewer">
-        {mesh?.arrays ? (
-          <Viewer positions={mesh.arrays.positions} overhangMask={mesh.arrays.overhangMask} bed={bed ? { x: bed.bedX, y: bed.bedY, name: bed.name } : null} edges={edges} showProblems={showProblems} />
-        ) : mesh?.error ? (
-          <Notice tone="fail" title="The 3D view could not be shown.">{mesh.error}</Notice>
-        ) : (
-          <div role="status" className="flex h-full items-center justify-center text-sm text-ink-soft">Reading the mesh…</div>
-        )}
-      </div>
-      <div className="flex flex-wrap items-center gap-4 text-xs text-ink-soft">
-        <span><span aria-hidden className="mr-1 inline-block h-3 w-3 rounded-sm bg-clay align-middle" />Part</span>
-        <span><span aria-hidden className="mr-1 inline-block h-3 w-3 rounded-sm bg-overhang align-middle" />Overhang past {(cur.analysis as AnalysisJson).overhang_deg}°</span>
-        <span><span aria-hidden className="mr-1 inline-block h-3 w-3 rounded-sm bg-[#b9b6ae] align-middle" />Bed{bed ? ` of ${bed.name}, ${bed.bedX} × ${bed.bedY} mm, 10 mm grid` : " (no printer yet: a stand-in)"}</span>
-        <label className="flex items-center gap-1">
-          <input type="checkbox" checked={showProblems} onChange={(e) => setShowProblems(e.target.checked)} />
-          <span><span aria-hidden className="mr-1 inline-block h-0.5 w-4 bg-[#e0b400] align-middle" />Show open and non-manifold edges ({edges.length / 6})</span>
-        </label>
-        {beds.length > 1 ? (
-          <label className="flex items-center gap-1">
-            Bed
-            <select aria-label="Bed to draw" className="rounded border border-rule bg-sheet px-1" value={bedPick?.printerId} onChange={(e) => setBedId(Number(e.target.value))}>
-              {beds.map((b) => <option key={b.printerId} value={b.printerId}>{b.name}</option>)}
-            </select>
-          </label>
-        ) : null}
-      </div>
-    </div>
-  );
-}
 
 function EditForm({ d }: { d: PartDetailWire }) {
   const qc = useQueryClient();
@@ -140,6 +69,7 @@ export function PartView({ id, initial }: { id: number; initial: PartDetailWire 
       <div className="grid gap-8 lg:grid-cols-[1fr_22rem]">
         <div className="flex flex-col gap-6">
           <ViewerPanel d={d} />
+          <MeshHealthPanel d={d} />
           {d.canEdit ? <FileDrop target={{ kind: "version", partId: id }} /> : null}
           <PartStatusPanel d={d} />
           {split.data?.pieces.length ? (
@@ -170,7 +100,8 @@ export function PartView({ id, initial }: { id: number; initial: PartDetailWire 
         <aside className="flex flex-col gap-6">
           <section aria-labelledby="numbers-h" className="flex flex-col gap-2">
             <h2 id="numbers-h">Figures</h2>
-            {a ? <PartNumbers a={a} /> : <p className="text-sm text-ink-soft">Figures appear once a mesh is uploaded.</p>}
+            {a ? <PrintedFigures d={d} a={a} /> : null}
+            {a ? <><h3 className="mt-2 text-sm font-semibold">The file as drawn</h3><PartNumbers a={a} /></> : <p className="text-sm text-ink-soft">Figures appear once a mesh is uploaded.</p>}
           </section>
           <section aria-labelledby="fits-h" className="flex flex-col gap-2">
             <h2 id="fits-h">Printers it fits</h2>

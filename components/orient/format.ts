@@ -1,11 +1,12 @@
 // Number formatting for the planner panels (en-GB, as on the part page).
+import { materialKeyOf } from "@/lib/rules/materials";
+import { downDetail, turnInWords } from "@/lib/rules/orientation-names";
+
 export const mm = (v: number, digits = 1) => v.toLocaleString("en-GB", { maximumFractionDigits: digits, minimumFractionDigits: 0 });
 
+/** The turn from the drawing in words, with the "down" vector as a detail (lib/rules/orientation-names). */
 export function downLabel(d: readonly number[]): string {
-  const names = ["X", "Y", "Z"];
-  const k = d.reduce((best, v, i) => (Math.abs(v) > Math.abs(d[best]!) ? i : best), 0);
-  if (Math.abs(d[k]!) > 0.999) return `${d[k]! < 0 ? "−" : "+"}${names[k]} faces the bed`;
-  return `(${d.map((v) => v.toFixed(2)).join(", ")}) faces the bed`;
+  return `${turnInWords(d)} · ${downDetail(d)}`;
 }
 
 /** Fetches the part's stored file; each call gets its own buffer, since the worker takes it over. */
@@ -24,9 +25,9 @@ export interface BedInfo {
   materials: string[];
 }
 
-/** Printers that take the part's material (all when none match), as the planner wants them. */
+/** Printers that take the part's material (lib/rules' material keys; none when the workshop does not print it), as the planner wants them. */
 export function plannerPrinters(beds: BedInfo[], material: string) {
-  const key = material.trim().split(/\s+/)[0]?.toLowerCase() ?? "";
-  const able = beds.filter((b) => b.materials.some((m) => m.toLowerCase() === key));
-  return (able.length ? able : beds).map((b) => ({ id: String(b.id), bed: [b.bedX, b.bedY] as [number, number], height: b.height }));
+  const key = materialKeyOf(material);
+  const able = key ? beds.filter((b) => b.materials.some((m) => materialKeyOf(m) === key)) : [];
+  return able.map((b) => ({ id: String(b.id), bed: [b.bedX, b.bedY] as [number, number], height: b.height }));
 }

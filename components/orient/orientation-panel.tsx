@@ -2,6 +2,7 @@
 // "Plan orientation": the search runs in the worker with progress and cancel; the best few are
 // shown side by side in 3D with their overhangs shaded, each with its figures and "Use this".
 import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { useRouter } from "next/navigation";
 import { useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { EmptyState, Notice } from "@/components/ui/notice";
@@ -9,6 +10,7 @@ import { Viewer } from "@/components/viewer/viewer";
 import type { CandidateView, OrientJobResult } from "@/lib/orient/worker-protocol";
 import { queryKeys } from "@/lib/queries/keys";
 import { pickOrientation } from "@/lib/queries/orientation";
+import { downDetail } from "@/lib/rules/orientation-names";
 import { downLabel, fileBytes, mm, plannerPrinters, type BedInfo } from "./format";
 import { PlannerCancelled, useOrientWorker } from "./use-orient-worker";
 
@@ -43,7 +45,7 @@ function Figures({ c, beds }: { c: CandidateView; beds: BedInfo[] }) {
       <dt className="text-ink-soft">Overhang</dt><dd className="num">{mm(c.overhangArea, 0)} mm²</dd>
       <dt className="text-ink-soft">Support</dt><dd className="num">{mm(c.supportVolume, 0)} mm³</dd>
       <dt className="text-ink-soft">Height</dt><dd className="num">{mm(c.height)} mm, {c.layers} layers</dd>
-      <dt className="text-ink-soft">Bed contact</dt><dd className="num">{mm(c.bedContactArea, 0)} mm²</dd>
+      <dt className="text-ink-soft">On the bed</dt><dd className="num">{mm(c.bedContactArea, 0)} mm²</dd>
       <dt className="text-ink-soft">Fits</dt><dd>{beds.length === 0 ? "no printers set up" : fitting.length ? fitting.join(", ") : "no printer"}</dd>
     </dl>
   );
@@ -55,10 +57,15 @@ function CandidateCard({ c, title, busy, onUse, beds }: { c: CandidateView; titl
       <div className="h-40 overflow-hidden rounded border border-rule">
         <Viewer positions={c.positions} overhangMask={c.overhangMask} bed={null} edges={NO_EDGES} showProblems={false} />
       </div>
-      <h4 className="text-sm font-semibold">{title}</h4>
-      <p className="text-xs text-ink-soft">{downLabel(c.down)}</p>
+      <h4 className="text-sm font-semibold">{title}: {c.label}</h4>
+      <p className="text-xs text-ink-soft">{c.label.toLowerCase() === c.turn ? downDetail(c.down) : downLabel(c.down)}</p>
+      {c.stable ? null : (
+        <p className="text-xs text-fail" role="note">
+          ⚠ Not printable as it stands: {c.bedContactArea < c.contactRequired ? `${mm(c.bedContactArea, 0)} mm² on the bed, at least ${mm(c.contactRequired, 0)} mm² needed` : "its centre of mass is not over the face it rests on, so it would tip"}.
+        </p>
+      )}
       <Figures c={c} beds={beds} />
-      <Button type="button" variant={title.startsWith("Best") ? "primary" : "secondary"} disabled={busy} onClick={onUse}>
+      <Button type="button" variant={title.startsWith("Best") ? "primary" : "secondary"} disabled={busy || (!c.stable && !title.startsWith("File"))} onClick={onUse}>
         {c.source === "original" && title.startsWith("File") ? "Keep the file's own" : "Use this"}
       </Button>
     </li>
@@ -67,6 +74,7 @@ function CandidateCard({ c, title, busy, onUse, beds }: { c: CandidateView; titl
 
 export function OrientationPanel({ p }: { p: PlannerPart }) {
   const { orient } = useOrientWorker();
+  const router = useRouter();
   const qc = useQueryClient();
   const [fraction, setFraction] = useState<number | null>(null);
   const [result, setResult] = useState<OrientJobResult | null>(null);
@@ -75,6 +83,8 @@ export function OrientationPanel({ p }: { p: PlannerPart }) {
   const use = useMutation({
     mutationFn: (c: CandidateView | "original") => pickOrientation(p.partId, c === "original" ? { kind: "original", fileId: p.fileId } : { kind: "rotation", fileId: p.fileId, quaternion: c.rotation.quaternion }),
     onSettled: () => Promise.all([qc.invalidateQueries({ queryKey: queryKeys.orientation.all }), qc.invalidateQueries({ queryKey: queryKeys.parts.all })]),
+    // The quote on the page is rendered by the server from the stored orientation: fetch it again.
+    onSuccess: () => router.refresh(),
   });
 
   const run = async () => {
@@ -96,7 +106,7 @@ export function OrientationPanel({ p }: { p: PlannerPart }) {
   return (
     <section aria-labelledby="orient-h" className="flex flex-col gap-3">
       <h2 id="orient-h">Plan orientation</h2>
-      <p className="text-sm text-ink-soft">Tries some 280 ways to stand the part on the bed and ranks them: least support first, then overhang, height and bed contact. Violet faces need support.</p>
+      <p className="text-sm text-ink-soft">Tries some 280 ways to stand the part on the bed and offers only those resting on a real face (at least 25 mm², or half the part&apos;s largest when it is small) with the centre of mass over it, ranked by least support, then overhang, height and contact. Violet faces need support.</p>
       {fraction === null ? (
         <div><Button type="button" onClick={run}>{result ? "Search again" : "Find orientations"}</Button></div>
       ) : (
@@ -104,8 +114,8 @@ export function OrientationPanel({ p }: { p: PlannerPart }) {
       )}
       {error ? <Notice tone="fail" title="The orientation search failed.">{error}</Notice> : null}
       {use.isError ? <Notice tone="fail" title="The orientation could not be saved.">{use.error.message}</Notice> : null}
-      {use.isSuccess ? <Notice tone="ok" title="Orientation saved. Packing and estimates use it from now on." /> : null}
-      {result && result.candidates.length === 0 ? <EmptyState title="No candidates">The search found no orientation to suggest; keep the file&apos;s own.</EmptyState> : null}
+      {use.isSuccess ? <Notice tone="ok" title="Orientation saved. The 3D view, figures, fit, quote and packing use it from now on." /> : null}
+      {result && result.candidates.length === 0 ? <EmptyState title="No orientation stands by itself">No way of laying this part rests on a face of the needed size with its centre of mass over it. Keep the file&apos;s own and ask the workshop about a brim or supports.</EmptyState> : null}
       {result ? (
         <ol aria-label="Ranked orientations" className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
           {result.candidates.map((c, i) => (

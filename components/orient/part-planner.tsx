@@ -26,7 +26,7 @@ function InUse({ o }: { o: OrientationWire }) {
   }
   return (
     <p className="text-sm" data-testid="orientation-in-use">
-      In use: chosen by {c.chosenBy ?? "someone"}{c.chosenAt ? ` on ${new Date(c.chosenAt).toLocaleDateString("en-GB")}` : ""} · {downLabel(c.down)} · {mm(c.height)} mm high ({c.summary.layers} layers) · {mm(c.footprint[0] ?? 0)} × {mm(c.footprint[1] ?? 0)} mm on the bed
+      In use: {c.summary.label ? <strong>{c.summary.label}</strong> : null}{c.summary.label ? " · " : ""}chosen by {c.chosenBy ?? "someone"}{c.chosenAt ? ` on ${new Date(c.chosenAt).toLocaleDateString("en-GB")}` : ""} · {downLabel(c.down)} · {mm(c.height)} mm high ({c.summary.layers} layers) · {mm(c.footprint[0] ?? 0)} × {mm(c.footprint[1] ?? 0)} mm on the bed
       {c.summary.supportVolume !== undefined ? ` · about ${mm(c.summary.supportVolume, 0)} mm³ of support` : ""}.
     </p>
   );

@@ -11,6 +11,8 @@ import type { Quat } from "@/lib/orient/rotation";
 import type { SplitCandidateView, SplitJobResult } from "@/lib/orient/worker-protocol";
 import { queryKeys } from "@/lib/queries/keys";
 import { acceptSplitCall } from "@/lib/queries/orientation";
+import { DEFAULT_PEG_CLEARANCE_MM, PEG_DEPTH_MM, PEG_DIAMETER_MM } from "@/lib/orient/pegs";
+import { splitSaving, SPLIT_MIN_SAVED_MM3, SPLIT_MIN_SAVED_SHARE } from "@/lib/rules/split";
 import { fileBytes, mm, plannerPrinters } from "./format";
 import { Progress, type PlannerPart } from "./orientation-panel";
 import { PlannerCancelled, useOrientWorker } from "./use-orient-worker";
@@ -55,6 +57,22 @@ function Preview({ c }: { c: SplitCandidateView }) {
   );
 }
 
+/** One ranked cut. Before, after, saving and share come from the same two rounded figures, so they add up as shown. */
+function SplitRow({ c, i, picked, onPick }: { c: SplitCandidateView; i: number; picked: boolean; onPick: () => void }) {
+  const before = Math.round(c.supportBefore), after = Math.round(c.supportAfter);
+  const { saved, share } = splitSaving({ supportBefore: before, supportAfter: after });
+  return (
+    <tr className={`border-t border-rule ${picked ? "bg-accent-wash" : ""}`}>
+      <td className="px-2 py-1"><label className="flex items-center gap-1"><input type="radio" name="split-pick" checked={picked} onChange={onPick} aria-label={`Split ${i + 1}`} />{i === 0 ? "Best" : `#${i + 1}`}</label></td>
+      <td className="num px-2 py-1 text-right">{c.pieces.length}</td>
+      <td className="num px-2 py-1 text-right">{mm(before, 0)} → {mm(after, 0)} mm³</td>
+      <td className="num px-2 py-1 text-right">{mm(saved, 0)} mm³ ({Math.round(100 * share)} %)</td>
+      <td className="num px-2 py-1 text-right">{mm(c.cutArea, 0)} mm²</td>
+      <td className="px-2 py-1">{c.allPiecesFit ? "✓ yes" : "✕ no"}</td>
+    </tr>
+  );
+}
+
 export function SplitPanel({ p, quaternion }: { p: PlannerPart; quaternion: Quat }) {
   const { split } = useOrientWorker();
   const qc = useQueryClient();
@@ -62,10 +80,17 @@ export function SplitPanel({ p, quaternion }: { p: PlannerPart; quaternion: Quat
   const [plan, setPlan] = useState<SplitJobResult | null>(null);
   const [pick, setPick] = useState(0);
   const [error, setError] = useState<string | null>(null);
+  const [pegs, setPegs] = useState(true);
+  const [clearance, setClearance] = useState(String(DEFAULT_PEG_CLEARANCE_MM));
   const cancelRef = useRef<() => void>(() => {});
   const accept = useMutation({
     mutationFn: (c: SplitCandidateView) =>
-      acceptSplitCall(p.partId, { fileId: p.fileId, quaternion, cut: c.kind === "plane" && c.planes[0] ? { kind: "plane", plane: { normal: c.planes[0].normal, offset: c.planes[0].offset } } : { kind: "to-fit" } }),
+      acceptSplitCall(p.partId, {
+        fileId: p.fileId,
+        quaternion,
+        cut: c.kind === "plane" && c.planes[0] ? { kind: "plane", plane: { normal: c.planes[0].normal, offset: c.planes[0].offset } } : { kind: "to-fit" },
+        ...(pegs && c.kind === "plane" ? { pegs: { clearanceMm: Number(clearance) } } : {}),
+      }),
     onSuccess: () => setPlan(null),
     onSettled: () => Promise.all([qc.invalidateQueries({ queryKey: queryKeys.orientation.all }), qc.invalidateQueries({ queryKey: queryKeys.parts.all }), qc.invalidateQueries({ queryKey: queryKeys.assemblies.all })]),
   });
@@ -104,24 +129,42 @@ export function SplitPanel({ p, quaternion }: { p: PlannerPart; quaternion: Quat
           <ul>{accept.data.pieces.map((x) => <li key={x.partId}><Link className="underline" href={`/bench/parts/${x.partId}`}>{x.name}</Link></li>)}</ul>
         </Notice>
       ) : null}
-      {plan && plan.candidates.length === 0 ? <EmptyState title="No cut worth making">No plane saves more than 1 % of the support{plan.partFits ? "" : " or makes the part fit a printer"}.</EmptyState> : null}
+      {plan && plan.candidates.length === 0 ? <EmptyState title="No cut worth making">No plane saves at least {SPLIT_MIN_SAVED_MM3} mm³ and {Math.round(SPLIT_MIN_SAVED_SHARE * 100)} % of the support{plan.partFits ? ", and the part already fits a printer" : " or makes the part fit a printer"}.</EmptyState> : null}
       {plan && plan.candidates.length > 0 ? (
         <>
           <table className="w-full text-sm" aria-label="Ranked splits">
-            <thead><tr className="text-left text-xs text-ink-soft"><th scope="col">Preview</th><th scope="col">Pieces</th><th scope="col">Support saved</th><th scope="col">Glue face</th><th scope="col">All pieces fit</th></tr></thead>
+            <thead>
+              <tr className="text-left text-xs text-ink-soft">
+                <th scope="col" className="px-2 py-1 font-normal">Preview</th>
+                <th scope="col" className="px-2 py-1 text-right font-normal">Pieces</th>
+                <th scope="col" className="px-2 py-1 text-right font-normal">Support before → after</th>
+                <th scope="col" className="px-2 py-1 text-right font-normal">Saved</th>
+                <th scope="col" className="px-2 py-1 text-right font-normal">Glue face</th>
+                <th scope="col" className="px-2 py-1 font-normal">All pieces fit</th>
+              </tr>
+            </thead>
             <tbody>
               {plan.candidates.map((c, i) => (
-                <tr key={i} className={i === pick ? "bg-accent-wash" : ""}>
-                  <td><label className="flex items-center gap-1"><input type="radio" name="split-pick" checked={i === pick} onChange={() => setPick(i)} aria-label={`Split ${i + 1}`} />{i === 0 ? "Best" : `#${i + 1}`}</label></td>
-                  <td className="num">{c.pieces.length}</td>
-                  <td className="num">{mm(c.supportSaved, 0)} mm³ ({c.supportBefore > 0 ? Math.round((100 * c.supportSaved) / c.supportBefore) : 0} %)</td>
-                  <td className="num">{mm(c.cutArea, 0)} mm²</td>
-                  <td>{c.allPiecesFit ? "✓ yes" : "✕ no"}</td>
-                </tr>
+                <SplitRow key={i} c={c} i={i} picked={i === pick} onPick={() => setPick(i)} />
               ))}
             </tbody>
           </table>
           {chosen ? <Preview c={chosen} /> : null}
+          {chosen?.kind === "plane" ? (
+            <fieldset className="flex flex-wrap items-center gap-3 text-sm">
+              <legend className="sr-only">Registration pegs</legend>
+              <label className="flex items-center gap-1">
+                <input type="checkbox" checked={pegs} onChange={(e) => setPegs(e.target.checked)} />
+                Add registration pegs and matching holes on the cut face
+              </label>
+              <label className="flex items-center gap-1">
+                Clearance
+                <input type="number" step="0.05" min="0" max="1" className="w-16 rounded border border-rule bg-sheet px-1 text-right" value={clearance} onChange={(e) => setClearance(e.target.value)} disabled={!pegs} aria-describedby="peg-hint" />
+                mm
+              </label>
+              <span id="peg-hint" className="text-xs text-ink-soft">{PEG_DIAMETER_MM} mm pegs, {PEG_DEPTH_MM} mm into each piece; the holes are wider and deeper by the clearance ({DEFAULT_PEG_CLEARANCE_MM} mm suits most printers).</span>
+            </fieldset>
+          ) : null}
           {chosen ? (
             <div className="flex items-center gap-3">
               <Button type="button" disabled={accept.isPending} onClick={() => accept.mutate(chosen)}>{accept.isPending ? "Cutting on the server…" : "Accept split"}</Button>

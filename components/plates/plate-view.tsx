@@ -38,7 +38,7 @@ function Plate3d({ id, bed, version }: { id: number; bed: { x: number; y: number
   if (!state?.arrays) return <div role="status" className="flex h-80 items-center justify-center rounded-lg border border-rule text-sm text-ink-soft">Building the 3D view…</div>;
   return (
     <div className="h-96 overflow-hidden rounded-lg border border-rule">
-      <Viewer positions={state.arrays.positions} overhangMask={state.arrays.overhangMask} bed={bed} edges={new Float32Array(0)} showProblems={false} />
+      <Viewer positions={state.arrays.positions} overhangMask={state.arrays.overhangMask} bed={bed} edges={new Float32Array(0)} showProblems={false} onBed />
     </div>
   );
 }

@@ -18,16 +18,19 @@ interface StoredAnalysis {
 export function PartQuote({
   analysis,
   part,
+  placed,
 }: {
   analysis: unknown;
   part: { material: string; layerHeightMm: number; walls: number; infillPercent: number };
+  /** Footprint and height as the part will lie on the bed (the chosen orientation, else the file as drawn). */
+  placed: { footprint: [number, number]; height: number; source: "chosen" | "file"; supportVolumeMm3?: number } | null;
 }) {
   const a = readAnalysis(analysis);
   const material = materialKeyOf(part.material);
   const problem = !a
     ? "Upload a mesh to see what this part costs."
     : !a.volume_reliable || !a.volume_mm3 || !a.area_mm2 || !a.size
-      ? "The mesh is not closed, so its volume and price cannot be worked out. Repair it and upload it again."
+      ? "The mesh is not a closed solid, so its volume and price cannot be worked out. Repair it above, or upload a fixed file."
       : !material
         ? `No price list for “${part.material}”.`
         : null;
@@ -43,17 +46,19 @@ export function PartQuote({
   return (
     <div className="mt-6">
       <QuotePanel
-        title="Quote for one copy"
+        title={placed?.source === "chosen" ? "Quote for one copy, as it will print" : "Quote for one copy"}
         input={{
           volumeMm3: a.volume_mm3!,
           areaMm2: a.area_mm2!,
-          heightMm: a.size[2],
-          widthMm: a.size[0],
-          depthMm: a.size[1],
+          heightMm: placed?.height ?? a.size[2],
+          widthMm: placed?.footprint[0] ?? a.size[0],
+          depthMm: placed?.footprint[1] ?? a.size[1],
           footprintAreaMm2: a.footprint_area_mm2 || undefined,
           layerHeightMm: part.layerHeightMm,
           wallCount: part.walls,
           infillPercent: part.infillPercent,
+          supportVolumeMm3: placed?.supportVolumeMm3 || undefined,
+          supports: (placed?.supportVolumeMm3 ?? 0) > 0,
           material,
         }}
       />

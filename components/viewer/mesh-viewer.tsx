@@ -12,6 +12,11 @@ export interface ViewerProps {
   bed: { x: number; y: number; name: string } | null;
   edges: Float32Array;
   showProblems: boolean;
+  /**
+   * The positions are already in bed coordinates (a plate: x, y from the bed's front-left corner,
+   * as "Bed from above" draws them): draw them there instead of centring the part on the bed.
+   */
+  onBed?: boolean;
 }
 
 const CLAY = new Color("#c8a27c");
@@ -61,14 +66,14 @@ function gridPoints(x: number, y: number, step = 10): Float32Array {
   return new Float32Array(out);
 }
 
-export function MeshViewer({ positions, overhangMask, bed, edges, showProblems }: ViewerProps) {
+export function MeshViewer({ positions, overhangMask, bed, edges, showProblems, onBed = false }: ViewerProps) {
   const geo = usePartGeometry(positions, overhangMask);
   const box = useMemo(() => bounds(positions), [positions]);
   const edgeGeo = useLines(edges);
   const bedSize = bed ?? { x: Math.max(box.max[0]! - box.min[0]!, 50) * 1.4, y: Math.max(box.max[1]! - box.min[1]!, 50) * 1.4, name: "" };
   const grid = useLines(useMemo(() => gridPoints(bedSize.x, bedSize.y), [bedSize.x, bedSize.y]));
-  // Centre the part on the bed, its lowest point touching it.
-  const offset: [number, number, number] = [-(box.min[0]! + box.max[0]!) / 2, -(box.min[1]! + box.max[1]!) / 2, -box.min[2]!];
+  // Centre the part on the bed, its lowest point touching it (a plate keeps the plan's own positions).
+  const offset: [number, number, number] = onBed && bed ? [-bed.x / 2, -bed.y / 2, 0] : [-(box.min[0]! + box.max[0]!) / 2, -(box.min[1]! + box.max[1]!) / 2, -box.min[2]!];
   return (
     <Canvas gl={{ preserveDrawingBuffer: true, antialias: true }} camera={{ position: [120, 120, 160], fov: 40, near: 0.1, far: 20000 }} style={{ background: "#eeeae1" }}>
       <ambientLight intensity={0.6} />

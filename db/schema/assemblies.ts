@@ -90,6 +90,13 @@ export const partFiles = mysqlTable(
     analysis: json("analysis").notNull(),
     uploadedBy: int("uploaded_by").notNull().references(() => users.id),
     uploadedAt: createdAt(),
+    /** Set on a version made by the automatic repair: the version it was made from, and what was done (before/after figures). */
+    repairedFromFileId: int("repaired_from_file_id"),
+    repairReport: json("repair_report"),
+    /** An operator accepted this mesh as it is although it is not a closed solid (who, when, why). */
+    acceptedBrokenBy: int("accepted_broken_by").references(() => users.id),
+    acceptedBrokenAt: datetime("accepted_broken_at", { mode: "date", fsp: 3 }),
+    acceptedBrokenNote: varchar("accepted_broken_note", { length: 500 }),
   },
   (t) => [uniqueIndex("part_files_version").on(t.partId, t.versionNo), index("part_files_sha_idx").on(t.sha256)],
 );

@@ -1,8 +1,10 @@
 import { datetime, index, int, mysqlEnum, mysqlTable, varchar } from "drizzle-orm/mysql-core";
 import { sql } from "drizzle-orm";
+import { roles } from "../../lib/rules/roles";
 
-export const roles = ["member", "operator", "admin"] as const;
-export type Role = (typeof roles)[number];
+// Roles are one of the workshop's rules (lib/rules); re-exported for the schema's importers.
+export { roles };
+export type { Role } from "../../lib/rules/roles";
 
 export const users = mysqlTable(
   "users",

@@ -1,16 +1,10 @@
-/** Does a footprint and height fit a printer? A quarter turn about Z is allowed. */
+/** Does a footprint and height fit a printer? The workshop's rule (lib/rules/fit: bed less the margin, a quarter turn allowed, build height). */
+import { envelopeFits } from "@/lib/rules/fit";
 import type { Printer, PrinterFit } from "./types";
 
-/** Slack for rounding in rotated coordinates, mm. */
-const SLACK = 1e-6;
-
 export function fitPrinter(footprint: readonly [number, number], height: number, p: Printer): PrinterFit {
-  const [w, d] = footprint;
-  const [bw, bd] = p.bed;
-  const tallEnough = height <= p.height + SLACK;
-  const straight = tallEnough && w <= bw + SLACK && d <= bd + SLACK;
-  const turned = !straight && tallEnough && d <= bw + SLACK && w <= bd + SLACK;
-  return { printerId: p.id, fits: straight || turned, turned };
+  const r = envelopeFits({ footprint, height }, p.bed, p.height);
+  return { printerId: p.id, fits: r.fits, turned: r.fits && r.turned };
 }
 
 export function fitPrinters(footprint: readonly [number, number], height: number, printers: readonly Printer[]): PrinterFit[] {

@@ -1,7 +1,6 @@
 /**
- * Small typed-array helpers the orientation and split code needs: per-facet normals, areas and
- * centroids, welding a soup into an indexed mesh, bounds and volume. Kept in one file so they can
- * be merged with lib/mesh later.
+ * Per-facet data the orientation and split code needs (normals, areas, centroids, corner reach).
+ * Welding, bounds and volume are lib/mesh's (`weld`, `soupBounds`, `indexedVolume`).
  */
 import type { IndexedMesh } from "@/lib/mesh/types";
 
@@ -14,6 +13,11 @@ export interface FacetData {
   areas: Float64Array;
   /** Centroids, 3 per facet. */
   centroids: Float64Array;
+  /** Farthest corner from the centroid, per facet (bounds how far a facet reaches up or down). */
+  reach: Float64Array;
+  /** The mesh's own triangle indices (3 per facet) and vertices, for exact per-corner checks. */
+  indices: Uint32Array;
+  vertices: Float32Array;
   totalArea: number;
 }
 
@@ -24,6 +28,7 @@ export function facetData(mesh: IndexedMesh): FacetData {
   const normals = new Float64Array(count * 3);
   const areas = new Float64Array(count);
   const centroids = new Float64Array(count * 3);
+  const reach = new Float64Array(count);
   let totalArea = 0;
   for (let t = 0; t < count; t++) {
     const a = ix[3 * t]! * 3, b = ix[3 * t + 1]! * 3, c = ix[3 * t + 2]! * 3;
@@ -41,64 +46,13 @@ export function facetData(mesh: IndexedMesh): FacetData {
     }
     areas[t] = len / 2;
     totalArea += len / 2;
-    centroids[3 * t] = (ax + bx + cx) / 3;
-    centroids[3 * t + 1] = (ay + by + cy) / 3;
-    centroids[3 * t + 2] = (az + bz + cz) / 3;
+    const gx = (ax + bx + cx) / 3, gy = (ay + by + cy) / 3, gz = (az + bz + cz) / 3;
+    centroids[3 * t] = gx;
+    centroids[3 * t + 1] = gy;
+    centroids[3 * t + 2] = gz;
+    reach[t] = Math.sqrt(Math.max((ax - gx) ** 2 + (ay - gy) ** 2 + (az - gz) ** 2, (bx - gx) ** 2 + (by - gy) ** 2 + (bz - gz) ** 2, (cx - gx) ** 2 + (cy - gy) ** 2 + (cz - gz) ** 2));
   }
-  return { count, normals, areas, centroids, totalArea };
-}
-
-/**
- * Welds identical (within `tolerance` mm) corners of a soup into shared vertices with an
- * open-addressing hash on quantised coordinates. Degenerate facets (two equal corners) are dropped,
- * since a closed-mesh library rejects them.
- */
-export function weld(positions: Float32Array, tolerance = 1e-4): IndexedMesh {
-  const corners = Math.floor(positions.length / 3);
-  let size = 1;
-  while (size < corners * 2) size <<= 1;
-  const mask = size - 1;
-  const table = new Int32Array(size).fill(-1);
-  const keys = new Float64Array(corners * 3);
-  const out = new Float32Array(corners * 3);
-  const remap = new Uint32Array(corners);
-  let n = 0;
-  const inv = 1 / tolerance;
-  for (let i = 0; i < corners; i++) {
-    const x = positions[3 * i]!, y = positions[3 * i + 1]!, z = positions[3 * i + 2]!;
-    const qx = Math.round(x * inv), qy = Math.round(y * inv), qz = Math.round(z * inv);
-    let h = (Math.imul(qx | 0, 73856093) ^ Math.imul(qy | 0, 19349663) ^ Math.imul(qz | 0, 83492791)) & mask;
-    for (;;) {
-      const slot = table[h]!;
-      if (slot < 0) {
-        table[h] = n;
-        keys[3 * n] = qx;
-        keys[3 * n + 1] = qy;
-        keys[3 * n + 2] = qz;
-        out[3 * n] = x;
-        out[3 * n + 1] = y;
-        out[3 * n + 2] = z;
-        remap[i] = n++;
-        break;
-      }
-      if (keys[3 * slot] === qx && keys[3 * slot + 1] === qy && keys[3 * slot + 2] === qz) {
-        remap[i] = slot;
-        break;
-      }
-      h = (h + 1) & mask;
-    }
-  }
-  const tris = Math.floor(corners / 3);
-  const indices = new Uint32Array(tris * 3);
-  let m = 0;
-  for (let t = 0; t < tris; t++) {
-    const a = remap[3 * t]!, b = remap[3 * t + 1]!, c = remap[3 * t + 2]!;
-    if (a === b || b === c || a === c) continue;
-    indices[m++] = a;
-    indices[m++] = b;
-    indices[m++] = c;
-  }
-  return { vertices: out.slice(0, n * 3), indices: indices.slice(0, m) };
+  return { count, normals, areas, centroids, reach, indices: ix, vertices: v, totalArea };
 }
 
 /** Expands an indexed mesh back into a soup (9 floats per triangle). */
@@ -113,46 +67,3 @@ export function soupFromIndexed(vertices: ArrayLike<number>, indices: ArrayLike<
   return out;
 }
 
-export interface Bounds {
-  min: [number, number, number];
-  max: [number, number, number];
-}
-
-export function boundsOf(points: ArrayLike<number>): Bounds {
-  const min: [number, number, number] = [Infinity, Infinity, Infinity];
-  const max: [number, number, number] = [-Infinity, -Infinity, -Infinity];
-  for (let i = 0; i + 2 < points.length; i += 3) {
-    for (let k = 0; k < 3; k++) {
-      const p = points[i + k]!;
-      if (p < min[k]!) min[k] = p;
-      if (p > max[k]!) max[k] = p;
-    }
-  }
-  return { min, max };
-}
-
-/** Signed volume by the divergence theorem, V = (1/6) Σ a·(b × c) (Mirtich 1996). */
-export function soupVolume(p: ArrayLike<number>): number {
-  let v = 0;
-  for (let i = 0; i + 8 < p.length; i += 9) {
-    const ax = p[i]!, ay = p[i + 1]!, az = p[i + 2]!;
-    const bx = p[i + 3]!, by = p[i + 4]!, bz = p[i + 5]!;
-    const cx = p[i + 6]!, cy = p[i + 7]!, cz = p[i + 8]!;
-    v += ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
-  }
-  return v / 6;
-}
-
-/** The same volume for an indexed mesh, without expanding it. */
-export function indexedVolume(mesh: IndexedMesh): number {
-  const v = mesh.vertices, ix = mesh.indices;
-  let s = 0;
-  for (let t = 0; t + 2 < ix.length; t += 3) {
-    const a = ix[t]! * 3, b = ix[t + 1]! * 3, c = ix[t + 2]! * 3;
-    const ax = v[a]!, ay = v[a + 1]!, az = v[a + 2]!;
-    const bx = v[b]!, by = v[b + 1]!, bz = v[b + 2]!;
-    const cx = v[c]!, cy = v[c + 1]!, cz = v[c + 2]!;
-    s += ax * (by * cz - bz * cy) + ay * (bz * cx - bx * cz) + az * (bx * cy - by * cx);
-  }
-  return s / 6;
-}

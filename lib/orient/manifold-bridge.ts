@@ -4,14 +4,20 @@
  */
 import type { Manifold, ManifoldToplevel } from "manifold-3d";
 import type { IndexedMesh, TriangleSoup } from "@/lib/mesh/types";
-import { weld } from "./geometry";
+import { withoutRepeatedCorners } from "@/lib/mesh/volume";
+import { weld } from "@/lib/mesh/weld";
 
 export type ManifoldWasm = ManifoldToplevel;
 export type Solid = Manifold;
 
-/** Welds the soup (the library needs shared vertices) and builds a solid; throws when not closed. */
-export function solidFromSoup(wasm: ManifoldWasm, soup: TriangleSoup, weldTolerance = 1e-4): Solid {
-  return solidFromIndexed(wasm, weld(soup.positions, weldTolerance));
+/** Welds the soup with lib/mesh (the library needs shared vertices) and builds a solid; throws when not closed. */
+export function solidFromSoup(wasm: ManifoldWasm, soup: TriangleSoup, weldTolerance?: number): Solid {
+  return solidFromIndexed(wasm, weldForSolid(soup, weldTolerance));
+}
+
+/** lib/mesh's weld without the triangles that collapse onto one vertex (manifold-3d rejects them). */
+export function weldForSolid(soup: TriangleSoup, weldTolerance?: number): IndexedMesh {
+  return withoutRepeatedCorners(weld(soup, weldTolerance));
 }
 
 export function solidFromIndexed(wasm: ManifoldWasm, mesh: IndexedMesh): Solid {

@@ -3,12 +3,21 @@
  * here is only a proxy (each overhang facet's column reaches the bed); the height field in
  * support.ts refines the best directions.
  */
-import { isOverhang } from "@/lib/mesh/overhang";
+import { isOverhang, restsOnBed } from "@/lib/rules/surface";
 import type { FacetData } from "./geometry";
 import type { Mat3 } from "./rotation";
 
-/** A facet rests on the bed when it faces down within 2° and lies within bedEps of the bed. */
-const COS_CONTACT = Math.cos((2 * Math.PI) / 180);
+/** Height of a facet's highest corner along (ux, uy, uz). */
+function topOf(f: FacetData, t: number, ux: number, uy: number, uz: number): number {
+  const v = f.vertices;
+  let top = -Infinity;
+  for (let k = 0; k < 3; k++) {
+    const i = f.indices[3 * t + k]! * 3;
+    const h = ux * v[i]! + uy * v[i + 1]! + uz * v[i + 2]!;
+    if (h > top) top = h;
+  }
+  return top;
+}
 
 export interface QuickMetrics {
   overhangArea: number;
@@ -19,9 +28,17 @@ export interface QuickMetrics {
   /** Vertices lowest and highest along the up axis (extreme points, reused for footprints). */
   lowVertex: number;
   highVertex: number;
+  /** Height of the lowest point along the up axis (the bed in the turned frame). */
+  lowest: number;
+  /** Facets on the bed (for the stance check). */
+  contactFacets: number[];
 }
 
-/** `m` is the rotation into the print frame; its third row is "up" in the file's frame. */
+/**
+ * `m` is the rotation into the print frame; its third row is "up" in the file's frame. Bed contact
+ * and overhang follow lib/rules/surface (a facet is on the bed when its highest corner is within
+ * `bedEps` of the lowest point; only facets whose centroid is within reach are checked corner by corner).
+ */
 export function quickMetrics(
   f: FacetData,
   vertices: Float32Array,
@@ -39,20 +56,37 @@ export function quickMetrics(
   }
   let overhangArea = 0, bedContactArea = 0, supportProxy = 0;
   const N = f.normals, C = f.centroids, A = f.areas;
-  const bedTop = lo + bedEps;
+  const R = f.reach;
+  const contactFacets: number[] = [];
   for (let t = 0; t < f.count; t++) {
     // n · down, with down = −up.
     const nd = -(ux * N[3 * t]! + uy * N[3 * t + 1]! + uz * N[3 * t + 2]!);
-    if (!isOverhang(nd, 1, sinTheta)) continue;
+    if (nd <= 0) continue;
     const hc = ux * C[3 * t]! + uy * C[3 * t + 1]! + uz * C[3 * t + 2]!;
+    const onBed = hc - R[t]! <= lo + bedEps && restsOnBed(nd, topOf(f, t, ux, uy, uz) - lo, bedEps);
     const a = A[t]!;
-    if (nd >= COS_CONTACT && hc <= bedTop) bedContactArea += a;
-    else {
+    if (onBed) {
+      bedContactArea += a;
+      contactFacets.push(t);
+    }
+    else if (isOverhang(nd, sinTheta, false)) {
       overhangArea += a;
       supportProxy += a * nd * (hc - lo);
     }
   }
-  return { overhangArea, bedContactArea, height: hi - lo, supportProxy, lowVertex, highVertex };
+  return { overhangArea, bedContactArea, height: hi - lo, supportProxy, lowVertex, highVertex, lowest: lo, contactFacets };
+}
+
+/** Print-frame x, y of the corners of the given facets, turned by m. */
+export function facetCornersXY(f: FacetData, facets: readonly number[], m: Mat3): number[] {
+  const v = f.vertices, out: number[] = [];
+  for (const t of facets) {
+    for (let k = 0; k < 3; k++) {
+      const i = f.indices[3 * t + k]! * 3;
+      out.push(m[0] * v[i]! + m[1] * v[i + 1]! + m[2] * v[i + 2]!, m[3] * v[i]! + m[4] * v[i + 1]! + m[5] * v[i + 2]!);
+    }
+  }
+  return out;
 }
 
 /**

@@ -4,7 +4,8 @@
  */
 import { overhangLimit, isOverhang } from "@/lib/mesh/overhang";
 import type { IndexedMesh, Vec3 } from "@/lib/mesh/types";
-import { boundsOf, facetData } from "./geometry";
+import { soupBounds } from "@/lib/mesh/weld";
+import { facetData } from "./geometry";
 
 export type PlaneKind = "under-overhang" | "middle" | "tilted" | "even" | "to-fit";
 
@@ -28,7 +29,7 @@ export interface PlaneOptions {
  */
 export function overhangHeights(mesh: IndexedMesh, sinTheta: number, layer: number, count: number): number[] {
   const f = facetData(mesh);
-  const b = boundsOf(mesh.vertices);
+  const b = soupBounds(mesh.vertices);
   const z0 = b.min[2], height = b.max[2] - z0;
   if (!(height > 0)) return [];
   const binSize = Math.max(layer, height / 200);
@@ -63,7 +64,7 @@ export function candidatePlanes(mesh: IndexedMesh, opts: PlaneOptions = {}): Cut
   const max = opts.maxPlanes ?? 12;
   const sinTheta = opts.sinTheta ?? overhangLimit(45);
   const layer = opts.layerHeight ?? 0.2;
-  const b = boundsOf(mesh.vertices);
+  const b = soupBounds(mesh.vertices);
   const mid: Vec3 = [(b.min[0] + b.max[0]) / 2, (b.min[1] + b.max[1]) / 2, (b.min[2] + b.max[2]) / 2];
   const size: Vec3 = [b.max[0] - b.min[0], b.max[1] - b.min[1], b.max[2] - b.min[2]];
   const list: CutPlane[] = [];

@@ -4,8 +4,11 @@
  * no printer, again and again, until every piece fits. Needs manifold-3d, passed in by the caller.
  */
 import { overhangLimit } from "@/lib/mesh/overhang";
+import { splitEarnsItsPlace } from "@/lib/rules/split";
 import type { IndexedMesh, TriangleSoup } from "@/lib/mesh/types";
-import { soupFromIndexed, weld } from "./geometry";
+import { weld } from "@/lib/mesh/weld";
+import { withoutRepeatedCorners } from "@/lib/mesh/volume";
+import { soupFromIndexed } from "./geometry";
 import { cutIntoPieces, indexedFromSolid, solidFromIndexed, type ManifoldWasm, type Solid } from "./manifold-bridge";
 import { applyOrientation, IDENTITY_MATRIX, rotationFromMatrix, type Rotation } from "./rotation";
 import { makeTicker, searchOrientationsIndexed } from "./search";
@@ -101,7 +104,7 @@ async function evaluatePieces(ctx: Ctx, solids: Solid[]): Promise<{ pieces: Spli
   for (const s of solids) {
     const mesh = indexedFromSolid(s);
     const result = await searchOrientationsIndexed(mesh, ctx.pieceOpts);
-    pieces.push({ soup: { positions: soupFromIndexed(mesh.vertices, mesh.indices) }, volume: s.volume(), orientation: result.candidates[0]! });
+    pieces.push({ soup: { positions: soupFromIndexed(mesh.vertices, mesh.indices) }, volume: s.volume(), orientation: result.candidates[0] ?? result.original });
     area += s.surfaceArea();
   }
   return { pieces, area };
@@ -123,7 +126,7 @@ function summarise(kind: SplitCandidate["kind"], planes: CutPlane[], pieces: Spl
 
 function printFrameMesh(soup: TriangleSoup, rotation: Rotation | undefined): IndexedMesh {
   const oriented = applyOrientation(soup, rotation ?? rotationFromMatrix([...IDENTITY_MATRIX]));
-  return weld(oriented.positions);
+  return withoutRepeatedCorners(weld(oriented));
 }
 
 /** Cuts the solid in the middle of its longest side until every piece fits a printer. */
@@ -136,7 +139,7 @@ async function cutToFit(ctx: Ctx, whole: Solid, maxDepth: number, tick: (f: numb
     while (queue.length) {
       const item = queue.pop()!;
       const r = await searchOrientationsIndexed(indexedFromSolid(item.solid), ctx.pieceOpts);
-      if (r.candidates[0]!.fitsAny || item.depth >= maxDepth) {
+      if ((r.candidates[0] ?? r.original).fitsAny || item.depth >= maxDepth) {
         done.push(item.solid);
         continue;
       }
@@ -173,7 +176,7 @@ export async function splitUntilFits(wasm: ManifoldWasm, soup: TriangleSoup, opt
   const whole = solidFromIndexed(wasm, mesh);
   try {
     const first = await searchOrientationsIndexed(mesh, pieceOpts);
-    if (first.candidates[0]!.fitsAny) return null;
+    if ((first.candidates[0] ?? first.original).fitsAny) return null;
     const tick = makeTicker(options.signal, options.onProgress);
     const { solids, planes } = await cutToFit(ctx, whole, options.maxDepth ?? 6, tick);
     try {
@@ -200,7 +203,7 @@ export async function planSplits(wasm: ManifoldWasm, soup: TriangleSoup, options
     const wholeArea = whole.surfaceArea();
     const before = supportInFrame(mesh, sinTheta);
     const wholeSearch = await searchOrientationsIndexed(mesh, pieceOpts);
-    const partFits = !printers.length || wholeSearch.candidates[0]!.fitsAny;
+    const partFits = !printers.length || (wholeSearch.candidates[0] ?? wholeSearch.original).fitsAny;
     const screened = candidatePlanes(mesh, { maxPlanes: options.maxPlanes ?? 12, sinTheta, layerHeight: options.layerHeight });
     // Every plane is screened cheaply; only the most promising are cut with manifold-3d.
     const ranked = screenPlanes(mesh, screened, sinTheta).map((s) => s.plane);
@@ -224,8 +227,8 @@ export async function planSplits(wasm: ManifoldWasm, soup: TriangleSoup, options
       const fit = await splitUntilFits(wasm, soup, { ...options, onProgress: (f) => options.onProgress?.(0.7 + 0.3 * f) });
       if (fit) out.push(fit);
     }
-    // Keep cuts that save support or make the part printable at all.
-    const useful = out.filter((c) => c.supportSaved > before * 0.01 || (!partFits && c.allPiecesFit));
+    // Keep cuts that earn their place (lib/rules/split): a real support saving, or a part made printable at all.
+    const useful = out.filter((c) => splitEarnsItsPlace(c, partFits));
     useful.sort(compareSplits);
     options.onProgress?.(1);
     return { volume, supportBefore: before, partFits, candidates: useful.slice(0, options.keep ?? 5), planesScreened: screened.length, planesCut: planes.length };

@@ -2,7 +2,7 @@
 import type { Vec3 } from "@/lib/mesh/types";
 import type { Rotation } from "./rotation";
 
-/** A workshop printer as the planner sees it: bed width × depth and build height, mm. */
+/** A workshop printer that takes the part's material, as the planner sees it: bed width × depth and build height, mm. */
 export interface Printer {
   id: string;
   bed: [number, number];
@@ -79,6 +79,12 @@ export interface OrientationCandidate {
   fitsAny: boolean;
   /** Lower is better; see README for the formula. */
   score: number;
+  /** Rests on at least `contactRequired` mm² with its centre of mass over the contact (lib/rules/stability). */
+  stable: boolean;
+  contactRequired: number;
+  /** Named in words (lib/rules/orientation-names): label, and the turn from the drawing. */
+  label: string;
+  turn: string;
 }
 
 export interface OrientationResult {

@@ -2,7 +2,7 @@
  * Messages between the page and the orientation worker, and the plain data it sends back. Pure:
  * the worker shell and the hook import only types and the helpers below.
  */
-import { overhangLimit, isOverhang } from "@/lib/mesh/overhang";
+import { OVERHANG_DEG, surfaceFigures } from "@/lib/rules/surface";
 import type { Quat, Rotation } from "./rotation";
 import type { CutPlane } from "./split-planes";
 import type { OrientationCandidate, Printer } from "./types";
@@ -33,6 +33,10 @@ export interface CandidateView {
   fits: { printerId: string; fits: boolean }[];
   fitsAny: boolean;
   score: number;
+  stable: boolean;
+  contactRequired: number;
+  label: string;
+  turn: string;
   positions: Float32Array;
   overhangMask: Uint8Array;
 }
@@ -77,27 +81,10 @@ export type FromWorker =
 /**
  * Per-facet overhang flags of a soup already in the print frame (Z up, resting on z = 0): the
  * facet's outward normal points down more steeply than the self-supporting angle allows, and it
- * is not resting on the bed. Same rule as the search (see README): n·down > sin θ, contact within 2°.
+ * is not resting on the bed: lib/rules/surface, measured by lib/mesh.
  */
-export function overhangMaskFor(positions: Float32Array, overhangAngle = 45, layerHeight = 0.2): Uint8Array {
-  const n = positions.length / 9;
-  const mask = new Uint8Array(n);
-  const sinT = overhangLimit(overhangAngle);
-  const cosContact = Math.cos((2 * Math.PI) / 180);
-  for (let t = 0; t < n; t++) {
-    const o = 9 * t;
-    const ax = positions[o + 3]! - positions[o]!, ay = positions[o + 4]! - positions[o + 1]!, az = positions[o + 5]! - positions[o + 2]!;
-    const bx = positions[o + 6]! - positions[o]!, by = positions[o + 7]! - positions[o + 1]!, bz = positions[o + 8]! - positions[o + 2]!;
-    const cx = ay * bz - az * by, cy = az * bx - ax * bz, cz = ax * by - ay * bx;
-    const len = Math.hypot(cx, cy, cz);
-    if (!(len > 0)) continue;
-    const down = -cz / len;
-    if (!isOverhang(down, 1, sinT)) continue;
-    const zc = (positions[o + 2]! + positions[o + 5]! + positions[o + 8]!) / 3;
-    if (down >= cosContact && zc <= layerHeight / 2) continue;
-    mask[t] = 1;
-  }
-  return mask;
+export function overhangMaskFor(positions: Float32Array, overhangAngle = OVERHANG_DEG): Uint8Array {
+  return surfaceFigures({ positions }, { overhangDeg: overhangAngle, mask: true }).overhangMask ?? new Uint8Array(positions.length / 9);
 }
 
 /** Buffers to hand over with a result, so nothing is copied between threads. */

@@ -3,14 +3,14 @@ import { and, eq, sql } from "drizzle-orm";
 import { db } from "@/db";
 import { partFiles, partOrientations, parts, partSplits, users, type OrientationKind } from "@/db/schema";
 import { readMesh, type TriangleSoup } from "@/lib/mesh";
-import { fitPrinters, matrixFromQuaternion, rotationFromMatrix, searchOrientations, type OrientationCandidate, type Printer, type Quat, type Rotation } from "@/lib/orient";
-import { boundsOf } from "@/lib/orient/geometry";
-import { rotatePoints } from "@/lib/orient/rotation";
+import { soupBounds, weld } from "@/lib/mesh/weld";
+import { largestContact } from "@/lib/orient/contact";
+import { applyOrientation, fitPrinters, matrixFromQuaternion, rotationFromMatrix, searchOrientations, supportVolumeHeightField, type OrientationCandidate, type Printer, type Quat, type Rotation } from "@/lib/orient";
+import { centreOfMass, isStable, materialKeyOf, nameOrientation, overhangSine, requiredContact, stanceOf, surfaceFigures } from "@/lib/rules";
 import type { OrientationPickInput, OrientationSearchInput } from "@/lib/validation/orientation";
 import { AppError } from "./errors";
 import { partAccess, requirePartEdit } from "./parts";
-import { materialKeyOf } from "./planner";
-import { listPrinterBeds } from "./printers";
+import { workshopPrinters } from "./part-envelope";
 import type { SessionUser } from "./session";
 import { blobStore } from "./storage";
 
@@ -25,6 +25,11 @@ export interface OrientationFigures {
   supportVolume?: number;
   bedContactArea?: number;
   score?: number;
+  /** Rests on enough contact with its centre of mass over it (lib/rules/stability); named in words. */
+  stable?: boolean;
+  contactRequired?: number;
+  label?: string;
+  turn?: string;
 }
 
 export interface StoredOrientation {
@@ -61,6 +66,10 @@ export function figuresOf(c: OrientationCandidate): OrientationFigures {
     supportVolume: c.supportVolume,
     bedContactArea: c.bedContactArea,
     score: c.score,
+    stable: c.stable,
+    contactRequired: c.contactRequired,
+    label: c.label,
+    turn: c.turn,
   };
 }
 
@@ -78,12 +87,14 @@ export async function partMesh(partId: number): Promise<{ fileId: number; soup: 
   return { fileId: row.fileId, soup, layerHeightMm: row.layerHeightMm, printers: await orientPrinters(row.material), assemblyId: row.assemblyId, volumeMm3: row.volumeMm3 };
 }
 
-/** Printers that take the material (all of them when the material is unknown), as lib/orient sees them. */
+/**
+ * Printers that take the material, as lib/orient sees them (its fit is lib/rules' envelope rule).
+ * None when the workshop does not print the material: then nothing fits, as on the part page and in the queue.
+ */
 export async function orientPrinters(material: string): Promise<Printer[]> {
-  const beds = await listPrinterBeds().catch(() => []);
+  const { envelopes } = await workshopPrinters();
   const key = materialKeyOf(material);
-  const able = key ? beds.filter((b) => b.materialKeys.includes(key)) : beds;
-  return (able.length ? able : beds).map((b) => ({ id: String(b.id), bed: [b.bedX, b.bedY], height: b.height }));
+  return key ? envelopes.filter((e) => e.materials.includes(key)).map((e) => ({ id: e.id, bed: [e.bed[0], e.bed[1]], height: e.height })) : [];
 }
 
 export async function isSplit(partId: number): Promise<number> {
@@ -144,13 +155,45 @@ export function rotationOfQuaternion(q: Quat): Rotation {
   return rotationFromMatrix(matrixFromQuaternion([q[0] / l, q[1] / l, q[2] / l, q[3] / l]));
 }
 
-/** Height, footprint and fits of the soup turned by `r`, computed here from the stored mesh. */
-export function measureRotation(soup: TriangleSoup, r: Rotation, layerHeightMm: number, printers: Printer[]): OrientationFigures {
-  const b = boundsOf(rotatePoints(soup.positions, r.matrix));
+/** Support estimate cell: fine enough for a figure within a few % (lib/orient README), coarse enough for large parts. */
+const cellFor = (footprint: [number, number]) => Math.max(0.25, Math.max(footprint[0], footprint[1]) / 192);
+
+/**
+ * Height, footprint, fits, overhang, bed contact and support of the soup turned by `r`, computed
+ * here from the stored mesh: overhang and bed contact by lib/mesh under lib/rules' thresholds, support
+ * by lib/orient's height field. These are the figures the part page, the quote and the queue use.
+ */
+export function measureRotation(soup: TriangleSoup, r: Rotation, layerHeightMm: number, printers: Printer[], overhangDeg?: number): OrientationFigures {
+  const placed = applyOrientation(soup, r);
+  const b = soupBounds(placed.positions);
   const footprint: [number, number] = [b.max[0] - b.min[0], b.max[1] - b.min[1]];
   const height = b.max[2] - b.min[2];
-  return { source: "pick", height, layers: Math.ceil(height / layerHeightMm - 1e-9), footprint, fits: fitPrinters(footprint, height, printers).map((f) => ({ printerId: f.printerId, fits: f.fits })) };
+  const surface = surfaceFigures(placed, { overhangDeg });
+  const mesh = weld(placed);
+  const support = supportVolumeHeightField(mesh.vertices, mesh.indices, { cellSize: cellFor(footprint), sinTheta: overhangSine(overhangDeg) });
+  const stance = stanceOf(mesh, IDENTITY_FRAME, centreOfMass(mesh));
+  const best = Math.max(largestContact(mesh), stance.contactArea);
+  const m = r.matrix;
+  const down = [-m[6] || 0, -m[7] || 0, -m[8] || 0];
+  const name = nameOrientation(down, stance.contactArea > 0 && stance.contactArea >= best * 0.999);
+  return {
+    source: "pick",
+    height,
+    layers: Math.ceil(height / layerHeightMm - 1e-9),
+    footprint,
+    fits: fitPrinters(footprint, height, printers).map((f) => ({ printerId: f.printerId, fits: f.fits })),
+    overhangArea: surface.overhangArea,
+    bedContactArea: surface.bedContactArea,
+    supportVolume: support.volume,
+    // Judged against the largest contact the part can give, as the search judges it.
+    stable: isStable(stance, best),
+    contactRequired: requiredContact(best),
+    label: name.label,
+    turn: name.turn,
+  };
 }
+
+const IDENTITY_FRAME = [1, 0, 0, 0, 1, 0, 0, 0, 1] as const;
 
 async function store(partId: number, fileId: number, kind: OrientationKind, r: Rotation, figures: StoredOrientation["summary"], by: number | null): Promise<void> {
   const m = r.matrix;
@@ -187,7 +230,8 @@ export async function chooseOrientation(user: SessionUser, partId: number, input
   // A pick that is one of the server's own candidates keeps that candidate's search figures.
   const suggested = await rowOf(partId, "suggested", mesh.fileId);
   const same = suggested?.summary.candidates?.find((c) => Math.abs(c.quaternion.reduce((s, v, i) => s + v * r.quaternion[i]!, 0)) > 1 - 1e-6);
-  const summary = same ? { ...same, ...figures, source: same.source } : { ...figures, source: input.kind === "original" ? ("original" as const) : ("pick" as const) };
+  // The measured figures win over the search's (one bed-contact and overhang rule); the search's score stays.
+  const summary = same ? { ...same, ...figures, source: same.source, label: same.label ?? figures.label, stable: same.stable ?? figures.stable, contactRequired: same.contactRequired ?? figures.contactRequired } : { ...figures, source: input.kind === "original" ? ("original" as const) : ("pick" as const) };
   delete (summary as { candidates?: unknown }).candidates;
   await store(partId, mesh.fileId, "chosen", r, summary, user.id);
   return (await rowOf(partId, "chosen", mesh.fileId))!;

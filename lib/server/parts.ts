@@ -1,12 +1,14 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { db } from "@/db";
-import { assemblies, assemblyShares, partFiles, partInstances, parts, statusEvents, users } from "@/db/schema";
-import { allowedTargets, fitPrinters, planTransition, type FitResult, type PartStatus } from "@/lib/status";
+import { assemblies, assemblyShares, partFiles, partInstances, parts, partSplits, statusEvents, users } from "@/db/schema";
+import { fitPrinters, materialKeyOf } from "@/lib/rules";
+import { allowedTargets, planTransition, type PartStatus } from "@/lib/rules/status";
 import type { PartInput, PartPatch, StatusChangeInput } from "@/lib/validation/assemblies";
 import { accessTo, canEdit, itemsOf, listShares, requireEdit, subtreeIds, visibleTrail, type Access } from "./assemblies";
 import { AppError } from "./errors";
-import { listPrinterBeds } from "./printers";
+import { currentMeshHealth } from "./mesh-health";
+import { partEnvelope, partEnvelopes, workshopPrinters, type PlacedEnvelope } from "./part-envelope";
 import type { SessionUser } from "./session";
 import { getWorkshopSettings } from "./workshop";
 
@@ -151,11 +153,19 @@ export async function changeStatus(user: SessionUser, partId: number, input: Sta
   });
 }
 
-export async function printerFits(size: [number, number, number] | null, material: string) {
-  // Printers may not be set up yet (or their table not migrated): that is "no printers", not an error.
-  const all = await listPrinterBeds().catch(() => []);
-  const beds = all.map((b) => ({ id: b.id, name: b.name, bedX: b.bedX, bedY: b.bedY, height: b.height, materials: b.materials }));
-  const fits: FitResult[] = size ? fitPrinters(size, material, beds) : [];
+/** One printer's answer on the part page. */
+export interface FitResult {
+  printerId: number;
+  name: string;
+  fits: boolean;
+  /** Why not, in plain words; empty when it fits. */
+  reason: string;
+}
+
+/** Which printers the part fits as it will lie on the bed (lib/rules/fit, the queue's own rule). */
+export async function printerFits(envelope: PlacedEnvelope | null, material: string) {
+  const { beds, envelopes } = await workshopPrinters();
+  const fits: FitResult[] = envelope ? fitPrinters(envelope, envelopes, materialKeyOf(material), material).map((f) => ({ printerId: Number(f.printerId), name: f.name, fits: f.fits, reason: f.reason })) : [];
   return { printers: beds.length, fits, beds };
 }
 
@@ -196,8 +206,8 @@ export async function getPartDetail(user: SessionUser, partId: number) {
         .orderBy(desc(statusEvents.at), desc(statusEvents.id))
     : [];
   const current = files.find((f) => f.id === part.currentFileId) ?? null;
-  const size = current ? ((current.analysis as { size: [number, number, number] }).size ?? null) : null;
-  const fit = await printerFits(size, part.material);
+  const placed = current ? await partEnvelope(partId) : null;
+  const fit = await printerFits(placed, part.material);
   const editable = canEdit(access);
   return {
     part,
@@ -209,6 +219,10 @@ export async function getPartDetail(user: SessionUser, partId: number) {
     instances: instances.map((i) => ({ ...i, next: allowedTargets(i.status, user.role, editable) })),
     events,
     fit: { printers: fit.printers, fits: fit.fits },
+    /** Footprint and height as the part will lie on the bed (the chosen orientation, else the file as drawn). */
+    placed,
+    /** Whether the current mesh is a closed solid, what is wrong in plain words, who accepted it, the repair that made it. */
+    health: current ? await currentMeshHealth(partId) : null,
     beds: fit.beds,
   };
 }
@@ -264,14 +278,21 @@ export async function getAssemblyDetail(user: SessionUser, id: number) {
     ? await d.select({ partId: partInstances.partId, status: partInstances.status, reprints: partInstances.reprints }).from(partInstances).where(inArray(partInstances.partId, partRows.map((p) => p.id)))
     : [];
   const itemRows = await itemsOf(ids);
-  const beds = await listPrinterBeds().catch(() => []);
+  const { beds, envelopes } = await workshopPrinters();
+  const placedOf = await partEnvelopes(partRows.map((p) => p.id));
+  // A part split into pieces is printed as its pieces: it leaves the quote, the BOM and sending.
+  const splitRows = partRows.length
+    ? await d.select({ parentId: partSplits.parentPartId, n: sql<number>`COUNT(*)` }).from(partSplits).where(inArray(partSplits.parentPartId, partRows.map((p) => p.id))).groupBy(partSplits.parentPartId)
+    : [];
+  const splitInto = new Map(splitRows.map((r) => [r.parentId, Number(r.n)]));
   const partsOut = partRows.map((p) => {
     const mine = inst.filter((i) => i.partId === p.id);
     // The driver may hand JSON_EXTRACT back parsed or as text, depending on the column type it reports.
     const size = (typeof p.size === "string" ? JSON.parse(p.size) : p.size ?? null) as [number, number, number] | null;
-    const fits = size && beds.length ? fitPrinters(size, p.material, beds).filter((f) => f.fits).length : null;
+    const placed = placedOf.get(p.id);
+    const fits = placed && beds.length ? fitPrinters(placed, envelopes, materialKeyOf(p.material), p.material).filter((f) => f.fits).length : null;
     const { size: _s, ...rest } = p;
-    return { ...rest, size, statuses: mine.map((i) => i.status), reprintsPending: mine.filter((i) => i.reprints > 0 && i.status !== "printed" && i.status !== "accepted").length, fittingPrinters: fits };
+    return { ...rest, size, placed: placed ?? null, splitInto: splitInto.get(p.id) ?? 0, statuses: mine.map((i) => i.status), reprintsPending: mine.filter((i) => i.reprints > 0 && i.status !== "printed" && i.status !== "accepted").length, fittingPrinters: fits };
   });
   const nodeIds = (n: number) => new Set(subtreeIds(info.tree, n));
   const nodes = ids.map((n) => {
@@ -282,8 +303,8 @@ export async function getAssemblyDetail(user: SessionUser, id: number) {
   });
   const blockers = {
     failed: partsOut.filter((p) => p.reprintsPending > 0).map((p) => ({ id: p.id, name: p.name, count: p.reprintsPending })),
-    notUploaded: partsOut.filter((p) => p.currentFileId === null).map((p) => ({ id: p.id, name: p.name })),
-    notFitting: partsOut.filter((p) => p.fittingPrinters === 0).map((p) => ({ id: p.id, name: p.name })),
+    notUploaded: partsOut.filter((p) => p.currentFileId === null && !p.splitInto).map((p) => ({ id: p.id, name: p.name })),
+    notFitting: partsOut.filter((p) => p.fittingPrinters === 0 && !p.splitInto).map((p) => ({ id: p.id, name: p.name })),
     hardwareNotInHand: itemRows.filter((i) => i.status !== "in_hand").map((i) => ({ id: i.id, name: i.name, status: i.status })),
   };
   return {
@@ -302,32 +323,5 @@ export async function getAssemblyDetail(user: SessionUser, id: number) {
 
 export type AssemblyDetail = Awaited<ReturnType<typeof getAssemblyDetail>>;
 
-const csvCell = (v: string | number | null) => {
-  const s = v === null ? "" : String(v);
-  // RFC 4180: quote cells holding commas, quotes or line breaks; double the quotes inside.
-  // A leading = + - @ is prefixed so a spreadsheet does not run it as a formula (common practice, OWASP "CSV injection").
-  const safe = /^[=+\-@]/.test(s) ? `'${s}` : s;
-  return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-};
-
-/** The bill of materials for an assembly and everything below it, as CSV (RFC 4180, CRLF). */
-export async function bomCsv(user: SessionUser, id: number): Promise<{ filename: string; csv: string }> {
-  const det = await getAssemblyDetail(user, id);
-  const where = new Map(det.nodes.map((n) => [n.id, n.name]));
-  const rows: (string | number | null)[][] = [["Type", "Name", "Sub-assembly", "Quantity", "Material or source", "Colour", "Status", "Unit price (cents)", "Due date"]];
-  for (const p of det.parts) {
-    rows.push(["printed part", p.name, where.get(p.assemblyId) ?? "", p.quantity, p.material, p.colour, summarise(p.statuses), null, null]);
-  }
-  for (const i of det.items) {
-    rows.push([i.kind === "hardware" ? "bought hardware" : "made elsewhere", i.name, where.get(i.assemblyId) ?? "", i.quantity, i.source, "", i.status.replace("_", " "), i.unitPriceCents, i.dueDate]);
-  }
-  const csv = rows.map((r) => r.map(csvCell).join(",")).join("\r\n") + "\r\n";
-  const slug = det.assembly.name.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "assembly";
-  return { filename: `${slug}-bom.csv`, csv };
-}
-
-function summarise(statuses: PartStatus[]): string {
-  const c = new Map<string, number>();
-  for (const s of statuses) c.set(s, (c.get(s) ?? 0) + 1);
-  return [...c].map(([s, n]) => `${n} ${s}`).join("; ");
-}
+// The bill of materials CSV lives in ./bom; re-exported here for its callers.
+export { bomCsv } from "./bom";

@@ -17,14 +17,17 @@ import {
   workshopSettings,
   type MaterialType,
 } from "@/db/schema";
-import { DEFAULT_SETTINGS, estimatePart, isMaterialKey, MATERIALS, NO_CALIBRATION, type CalibrationFactor } from "@/lib/estimate";
+import { BED_MARGIN_MM } from "@/lib/rules/fit";
+import { materialKeyOf } from "@/lib/rules/materials";
+import { DEFAULT_SETTINGS, estimatePart, MATERIALS, NO_CALIBRATION, type CalibrationFactor } from "@/lib/estimate";
 import { parsePlanInstance, type PlanInstance, type PlanInstanceInput } from "@/lib/plan/schema";
 import type { Executor } from "./mail";
 import { calibrationFor } from "./printers";
 import { LINE_WIDTH_PER_NOZZLE } from "./quotes";
 
 /** Clear border on every side of the bed and the gap between parts, mm: common practice, no source. */
-export const BED_MARGIN_MM = 5;
+/** The bed margin and material keys are the workshop's rules (lib/rules); re-exported for this file's importers. */
+export { BED_MARGIN_MM, materialKeyOf };
 export const PART_GAP_MM = 3;
 /**
  * Parts carry no nozzle choice yet, so every printer may print any of them: both sides of the
@@ -94,10 +97,6 @@ export async function planPrinters(d: Executor = db()): Promise<PlanPrinter[]> {
 export const normColour = (c: string) => c.trim().toLowerCase() || "any";
 
 /** The material family of a part's free-text material ("PETG" → "petg"); null when unknown. */
-export function materialKeyOf(material: string): MaterialType | null {
-  const k = material.trim().toLowerCase().split(/\s+/)[0] ?? "";
-  return isMaterialKey(k) ? k : null;
-}
 
 /**
  * Footprint and height of an instance as it will lie on the bed: the chosen orientation's (stored

@@ -1,11 +1,13 @@
 import "server-only";
-import { asc, eq } from "drizzle-orm";
+import { and, asc, eq } from "drizzle-orm";
 import { db } from "@/db";
-import { assemblies, partFiles, partInstances, parts, plateItems, plates, printers, users } from "@/db/schema";
+import { assemblies, partFiles, partInstances, partOrientations, parts, plateItems, plates, printers, users } from "@/db/schema";
 import { readMesh, write3mf, type TriangleSoup } from "@/lib/mesh";
 import type { Affine } from "@/lib/mesh/affine";
+import { applyOrientation, type Quat } from "@/lib/orient";
 import { can } from "@/lib/permissions";
 import { AppError } from "./errors";
+import { jsonOf, rotationOfQuaternion } from "./orientation";
 import { BED_MARGIN_MM } from "./planner";
 import { plateLabel } from "./plates";
 import type { SessionUser } from "./session";
@@ -85,7 +87,7 @@ export function placement(min: [number, number, number], at: { x: number; y: num
   return [0, 1, 0, -1, 0, 0, 0, 0, 1, at.x + at.depth + my, at.y - mx, -mz];
 }
 
-/** The plate as a 3MF file: one object per part copy, placed where the plan put it, in mm. Operators and admins. */
+/** The plate as a 3MF file: one object per part copy, in its chosen orientation, placed where the plan put it, resting on the bed, in mm. Operators and admins. */
 export async function plate3mf(user: SessionUser, id: number): Promise<{ filename: string; bytes: Uint8Array }> {
   if (!can(user.role, "plates:act")) throw new AppError("forbidden", "Only operators and admins download plates.");
   const det = await plateDetail(user, id);
@@ -95,9 +97,16 @@ export async function plate3mf(user: SessionUser, id: number): Promise<{ filenam
     if (it.fileId === null) throw new AppError("conflict", `${it.label} has no mesh any more; re-plan the plate.`);
     let f = files.get(it.fileId);
     if (!f) {
-      const [row] = await db().select({ sha: partFiles.sha256, units: partFiles.units, name: partFiles.originalName }).from(partFiles).where(eq(partFiles.id, it.fileId));
+      const [row] = await db().select({ sha: partFiles.sha256, units: partFiles.units, name: partFiles.originalName, partId: partFiles.partId }).from(partFiles).where(eq(partFiles.id, it.fileId));
       if (!row) throw new AppError("conflict", `The mesh of ${it.label} is missing.`);
-      const soup = readMesh(await blobStore().read(row.sha), { filename: row.name, units: row.units }).soup;
+      let soup = readMesh(await blobStore().read(row.sha), { filename: row.name, units: row.units }).soup;
+      // Each copy lies as the plan placed it: turned into the part's chosen orientation for this file.
+      const [chosen] = await db()
+        .select({ q: partOrientations.quaternion })
+        .from(partOrientations)
+        .where(and(eq(partOrientations.partId, row.partId), eq(partOrientations.fileId, it.fileId), eq(partOrientations.kind, "chosen")))
+        .limit(1);
+      if (chosen) soup = applyOrientation(soup, rotationOfQuaternion(jsonOf<Quat>(chosen.q)));
       f = { soup, min: bboxMin(soup) };
       files.set(it.fileId, f);
     }

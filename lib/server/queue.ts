@@ -4,15 +4,16 @@ import { db } from "@/db";
 import { assemblies, materials, partFiles, partInstances, parts, plannerState, plateItems, plates, printers, queueEntries, spools, users } from "@/db/schema";
 import { MATERIALS } from "@/lib/estimate";
 import { can } from "@/lib/permissions";
-import { checkPartInstance } from "@/lib/plan/check-part";
+import { fitVerdict } from "@/lib/rules/fit";
+import { meshSendCheck, type HealthFigures } from "@/lib/rules/mesh-health";
 import { planWorkshop } from "@/lib/plan/plan";
 import type { PlanMetrics } from "@/lib/plan/schema";
 import { MEMBER_MAX_PRIORITY, type QueuePriorityInput, type QueueSendInput } from "@/lib/validation/queue";
 import { AppError } from "./errors";
 import { SPOOL_MARGIN } from "./materials";
 import { partAccess, requirePartEdit } from "./parts";
-import { effectiveGeometry } from "./orientation";
-import { ANY_NOZZLE, BED_MARGIN_MM, buildPlanningInput, densities, densityOf, estimateInstance, instanceGeometry, materialKeyOf, planPrinterShapes, timingPrinter, type PartForEstimate } from "./planner";
+import { effectiveGeometry, isSplit, jsonOf } from "./orientation";
+import { buildPlanningInput, densities, densityOf, estimateInstance, instanceGeometry, materialKeyOf, planPrinterShapes, timingPrinter, type PartForEstimate } from "./planner";
 import { currentPricing, makeQuote, moveInstances, plateLabel } from "./plates";
 import type { SessionUser } from "./session";
 
@@ -28,20 +29,28 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
   await requirePartEdit(user, input.partId);
   if (input.priority > MEMBER_MAX_PRIORITY) throw invalid("Members may ask for normal or soon; the workshop sets rush priorities.", "priority");
   const [part] = await db()
-    .select({ name: parts.name, material: parts.material, layerHeightMm: parts.layerHeightMm, walls: parts.walls, infillPercent: parts.infillPercent, ownerId: assemblies.ownerId, fileId: partFiles.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, analysis: partFiles.analysis })
+    .select({ name: parts.name, material: parts.material, layerHeightMm: parts.layerHeightMm, walls: parts.walls, infillPercent: parts.infillPercent, ownerId: assemblies.ownerId, fileId: partFiles.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, analysis: partFiles.analysis, acceptedBrokenBy: partFiles.acceptedBrokenBy })
     .from(parts)
     .innerJoin(assemblies, eq(assemblies.id, parts.assemblyId))
     .leftJoin(partFiles, eq(partFiles.id, parts.currentFileId))
     .where(eq(parts.id, input.partId));
   if (!part) throw new AppError("not_found", "No such part, or it is not shared with you.");
+  if (await isSplit(input.partId)) throw invalid("This part was split into pieces: send the pieces instead.", "partId");
   if (part.fileId === null || part.sizeX === null || part.sizeY === null || part.sizeZ === null) throw invalid("This part has no mesh yet: upload one before sending it to the workshop.", "partId");
+  // A mesh that is not a closed solid is not sent, unless an operator accepted it (lib/rules/mesh-health).
+  const health = meshSendCheck(jsonOf<HealthFigures>(part.analysis), part.acceptedBrokenBy === null ? null : String(part.acceptedBrokenBy));
+  if (!health.ok) throw invalid(health.reason, "partId");
   const type = materialKeyOf(part.material);
-  if (!type) throw invalid(`The workshop does not print ${part.material}: pick one of ${Object.values(MATERIALS).map((m) => m.name).join(", ")}.`, "partId");
   // The member's chosen orientation for the current file decides how the part lies on the bed.
   const geo = instanceGeometry({ sizeX: part.sizeX, sizeY: part.sizeY, sizeZ: part.sizeZ }, await effectiveGeometry(input.partId));
   const { all, shapes } = await planPrinterShapes();
-  const check = checkPartInstance({ footprint: geo.footprint, height: geo.height, material: type, nozzle: ANY_NOZZLE }, shapes, BED_MARGIN_MM);
-  if (!check.ok) throw invalid(`No printer here can take this part: ${check.reason.replace(/\b(pla|petg|abs|asa|tpu|nylon|pc)\b/g, (m) => m.toUpperCase())}.`, "partId");
+  // The workshop's one fit rule (lib/rules/fit), the same the part page, quote and orientation panel ask.
+  const check = fitVerdict(geo, shapes, type, part.material);
+  if (!check.ok) {
+    const hint = type ? "" : ` (it prints ${Object.values(MATERIALS).map((m) => m.name).join(", ")})`;
+    throw invalid(`No printer here can take this part: ${check.reason}${hint}.`, "partId");
+  }
+  if (!type) throw invalid(`The workshop does not print ${part.material}.`, "partId");
   const able = all.filter((p) => check.printers.includes(String(p.id)));
   const est = estimateInstance({ ...part, sizeZ: geo.height, analysis: (part.analysis ?? {}) as PartForEstimate["analysis"] }, timingPrinter(able, type)!, densityOf(await densities(), type));
   const [stock] = await db().select({ grams: sql<number | null>`MAX(${spools.gramsRemaining})` }).from(spools).innerJoin(materials, eq(materials.id, spools.materialId)).where(eq(materials.type, type));

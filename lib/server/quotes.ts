@@ -11,6 +11,7 @@ import {
   type PrintSettings,
 } from "@/lib/estimate";
 import { can } from "@/lib/permissions";
+import { fitOnPrinter } from "@/lib/rules/fit";
 import type { MaterialType } from "@/db/schema";
 import { inArray } from "drizzle-orm";
 import { db } from "@/db";
@@ -18,6 +19,7 @@ import { partFiles } from "@/db/schema";
 import { materialKeyOf, type QuoteAssemblyInput, type QuotePartInput } from "@/lib/validation/printers";
 import { AppError } from "./errors";
 import { materialPrices } from "./materials";
+import { partEnvelopes } from "./part-envelope";
 import { getAssemblyDetail } from "./parts";
 import { listPrinters, type Printer } from "./printers";
 import type { SessionUser } from "./session";
@@ -61,12 +63,13 @@ export interface PartQuote {
   quotedAt: string;
 }
 
+/**
+ * The workshop's one fit rule (lib/rules/fit: the bed less the margin, a quarter turn allowed, build
+ * height, material). A quote typed in without width and depth is checked on height and material only.
+ */
 function fitsOn(p: Printer, input: QuotePartInput): boolean {
-  if (input.heightMm > p.heightMm) return false;
-  const { widthMm: w, depthMm: d } = input;
-  if (w === undefined || d === undefined) return true;
-  // Turned by a quarter on the bed if that is what makes it fit.
-  return (w <= p.bedXMm && d <= p.bedYMm) || (d <= p.bedXMm && w <= p.bedYMm);
+  const footprint: [number, number] = [input.widthMm ?? 0, input.depthMm ?? 0];
+  return fitOnPrinter({ footprint, height: input.heightMm }, { id: String(p.id), bed: [p.bedXMm, p.bedYMm], height: p.heightMm, materials: p.materials }, input.material).fits;
 }
 
 function settingsFor(input: QuotePartInput, nozzleMm: number): PrintSettings {
@@ -185,6 +188,7 @@ export interface StoredAnalysis {
 export function partQuoteInput(
   analysis: unknown,
   part: { material: string; layerHeightMm: number; walls: number; infillPercent: number },
+  placed?: { footprint: readonly [number, number]; height: number; supportVolumeMm3?: number } | null,
 ): { input: QuotePartInput } | { problem: string } {
   const a = readAnalysis(analysis);
   if (!a) return { problem: "no mesh uploaded" };
@@ -195,14 +199,17 @@ export function partQuoteInput(
     input: {
       volumeMm3: a.volume_mm3,
       areaMm2: a.area_mm2,
-      heightMm: a.size[2],
-      widthMm: a.size[0],
-      depthMm: a.size[1],
+      // As the part will lie on the bed: its chosen orientation, else the file as drawn.
+      heightMm: placed?.height ?? a.size[2],
+      widthMm: placed?.footprint[0] ?? a.size[0],
+      depthMm: placed?.footprint[1] ?? a.size[1],
       footprintAreaMm2: a.footprint_area_mm2 || undefined,
       layerHeightMm: part.layerHeightMm,
       wallCount: part.walls,
       infillPercent: part.infillPercent,
-      supports: false,
+      // The chosen orientation's support estimate counts in grams and time.
+      supportVolumeMm3: placed?.supportVolumeMm3 || undefined,
+      supports: (placed?.supportVolumeMm3 ?? 0) > 0,
       material,
     },
   };
@@ -217,10 +224,12 @@ export async function quoteStoredAssembly(user: SessionUser, assemblyId: number)
   const detail = await getAssemblyDetail(user, assemblyId); // checks access
   const fileIds = detail.parts.map((p) => p.currentFileId).filter((x): x is number => x !== null);
   const files = fileIds.length ? await db().select({ id: partFiles.id, analysis: partFiles.analysis }).from(partFiles).where(inArray(partFiles.id, fileIds)) : [];
+  const placed = await partEnvelopes(detail.parts.map((p) => p.id));
   const parts: QuoteAssemblyInput["parts"] = [];
   const unpriced: { name: string; reason: string }[] = [];
-  for (const p of detail.parts) {
-    const r = partQuoteInput(files.find((f) => f.id === p.currentFileId)?.analysis, p);
+  // A split part is priced as its pieces only.
+  for (const p of detail.parts.filter((x) => !x.splitInto)) {
+    const r = partQuoteInput(files.find((f) => f.id === p.currentFileId)?.analysis, p, placed.get(p.id));
     if ("problem" in r) unpriced.push({ name: p.name, reason: r.problem });
     else parts.push({ ...r.input, label: p.name, quantity: p.quantity });
   }

@@ -7,8 +7,8 @@ import { db } from "@/db";
 import { partFiles, partInstances, parts, partSplits, queueEntries, statusEvents } from "@/db/schema";
 import { analysisToJson, analyzeBytes, writeStl, type TriangleSoup } from "@/lib/mesh";
 import { applyOrientation, searchOrientations, splitUntilFits, type ManifoldWasm, type Printer, type Rotation } from "@/lib/orient";
-import { weld } from "@/lib/orient/geometry";
-import { cutIntoPieces, solidFromIndexed, soupFromSolid } from "@/lib/orient/manifold-bridge";
+import { cutIntoPieces, solidFromIndexed, soupFromSolid, weldForSolid } from "@/lib/orient/manifold-bridge";
+import { cutWithPegs } from "@/lib/orient/pegs";
 import type { SplitAcceptInput } from "@/lib/validation/orientation";
 import { AppError } from "./errors";
 import { isSplit, partMesh, rotationOfQuaternion } from "./orientation";
@@ -46,7 +46,7 @@ export interface CutPiece {
  * The server's own cut: the part in the given rotation, cut by the plane (print frame) with
  * manifold-3d, or cut in halves until every piece fits. Each piece is then turned to its best.
  */
-export async function cutPart(wasm: ManifoldWasm, soup: TriangleSoup, rotation: Rotation, cut: SplitAcceptInput["cut"], printers: Printer[], layerHeight: number): Promise<CutPiece[]> {
+export async function cutPart(wasm: ManifoldWasm, soup: TriangleSoup, rotation: Rotation, cut: SplitAcceptInput["cut"], printers: Printer[], layerHeight: number, pegs: SplitAcceptInput["pegs"] = undefined): Promise<CutPiece[]> {
   const opts = { ...PIECE_SEARCH, printers, layerHeight };
   if (cut.kind === "to-fit") {
     const fit = await splitUntilFits(wasm, soup, { rotation, printers, layerHeight });
@@ -54,12 +54,12 @@ export async function cutPart(wasm: ManifoldWasm, soup: TriangleSoup, rotation: 
     return fit.pieces.map((p) => ({ soup: applyOrientation(p.soup, p.orientation.rotation), volume: p.volume, rotation: p.orientation.rotation }));
   }
   const framed = applyOrientation(soup, rotation);
-  const whole = solidFromIndexed(wasm, weld(framed.positions));
+  const whole = solidFromIndexed(wasm, weldForSolid(framed));
   const n = cut.plane.normal;
   const l = Math.hypot(...n);
   try {
     const total = whole.volume();
-    const solids = cutIntoPieces(whole, [n[0] / l, n[1] / l, n[2] / l], cut.plane.offset / l);
+    const { solids } = pegs ? cutWithPegs(wasm, whole, [n[0] / l, n[1] / l, n[2] / l], cut.plane.offset / l, pegs) : { solids: cutIntoPieces(whole, [n[0] / l, n[1] / l, n[2] / l], cut.plane.offset / l) };
     try {
       if (solids.length < 2 || solids.some((s) => s.volume() <= total * 1e-4)) {
         throw new AppError("invalid", "This plane does not cut the part into pieces.", { "cut.plane": ["The plane misses the part or only shaves a sliver."] });
@@ -67,7 +67,8 @@ export async function cutPart(wasm: ManifoldWasm, soup: TriangleSoup, rotation: 
       const out: CutPiece[] = [];
       for (const s of solids) {
         const pieceSoup = soupFromSolid(s);
-        const best = (await searchOrientations(pieceSoup, opts)).candidates[0]!;
+        const found = await searchOrientations(pieceSoup, opts);
+        const best = found.candidates[0] ?? found.original;
         out.push({ soup: applyOrientation(pieceSoup, best.rotation), volume: s.volume(), rotation: best.rotation });
       }
       return out;
@@ -95,7 +96,7 @@ export async function acceptSplit(user: SessionUser, partId: number, input: Spli
   const busy = await db().select({ id: partInstances.id }).from(partInstances).where(and(eq(partInstances.partId, partId), inArray(partInstances.status, ["plated", "printing"])));
   if (busy.length) throw new AppError("conflict", "A copy of this part is on a plate or printing; split it once that is done.");
   const rotation = rotationOfQuaternion(input.quaternion);
-  const pieces = await cutPart(await manifold(), mesh.soup, rotation, input.cut, mesh.printers, mesh.layerHeightMm);
+  const pieces = await cutPart(await manifold(), mesh.soup, rotation, input.cut, mesh.printers, mesh.layerHeightMm, input.pegs);
   const [parent] = await db()
     .select({ name: parts.name, quantity: parts.quantity, material: parts.material, colour: parts.colour, layerHeightMm: parts.layerHeightMm, walls: parts.walls, infillPercent: parts.infillPercent })
     .from(parts)
@@ -144,7 +145,7 @@ export async function acceptSplit(user: SessionUser, partId: number, input: Spli
           await tx.insert(statusEvents).values({ instanceId: inst!.id, fromStatus: null, toStatus: "drafted", byUserId: user.id, reason: `Cut from ${parent.name.slice(0, 200)}` });
         }
         const piece = pieces[k]!;
-        await tx.insert(partSplits).values({ parentPartId: partId, piecePartId: pid, splitBy: user.id, plane: { kind: input.cut.kind, plane, parentQuaternion: rotation.quaternion, pieceQuaternion: piece.rotation.quaternion, piece: k + 1, of: N, volumeMm3: piece.volume } });
+        await tx.insert(partSplits).values({ parentPartId: partId, piecePartId: pid, splitBy: user.id, plane: { kind: input.cut.kind, plane, pegs: input.pegs ?? null, parentQuaternion: rotation.quaternion, pieceQuaternion: piece.rotation.quaternion, piece: k + 1, of: N, volumeMm3: piece.volume } });
         out.push({ partId: pid, fileId: file!.id, name: f.name, volumeMm3: j.volume_mm3 });
       }
       const unprinted = await tx.select({ id: partInstances.id }).from(partInstances).where(and(eq(partInstances.partId, partId), inArray(partInstances.status, ["drafted", "ready", "queued"]))).for("update");

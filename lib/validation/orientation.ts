@@ -41,5 +41,7 @@ export const splitAcceptInput = z.strictObject({
     z.strictObject({ kind: z.literal("plane"), plane: cutPlaneInput }),
     z.strictObject({ kind: z.literal("to-fit") }),
   ]),
+  /** Registration pegs on the cut face (plane cuts into one piece a side), with the clearance the maker sets, mm. */
+  pegs: z.strictObject({ clearanceMm: z.coerce.number({ error: "Enter the clearance in mm." }).min(0, "Not below 0 mm.").max(1, "At most 1 mm.") }).optional(),
 });
 export type SplitAcceptInput = z.infer<typeof splitAcceptInput>;

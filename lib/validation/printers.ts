@@ -1,5 +1,4 @@
 import { z } from "zod";
-import { MATERIALS, MATERIAL_KEYS } from "../estimate/materials";
 
 /** Material families the workshop may stock; the keys of lib/estimate's MATERIALS. */
 export const materialTypes = ["pla", "petg", "abs", "asa", "tpu", "nylon", "pc"] as const;
@@ -86,8 +85,5 @@ export const quoteAssemblyInput = z.strictObject({
 });
 export type QuoteAssemblyInput = z.infer<typeof quoteAssemblyInput>;
 
-/** A material as parts store it ("PLA", "Nylon (PA6)", "nylon" …) → its family key, or null. */
-export function materialKeyOf(name: string): MaterialType | null {
-  const n = name.trim().toLowerCase();
-  return MATERIAL_KEYS.find((k) => k === n || MATERIALS[k].name.toLowerCase() === n || MATERIALS[k].name.toLowerCase().startsWith(`${n} `)) ?? null;
-}
+/** A material as parts store it ("PLA", "Nylon (PA6)", "nylon" …) → its family key, or null: the workshop's rule in lib/rules. */
+export { materialKeyOf } from "../rules/materials";

@@ -4,8 +4,7 @@
  * ~100,000 triangles ≤ 10 s. Prints figures; asserts nothing.
  */
 import Module from "manifold-3d";
-import { overhangLimit } from "@/lib/mesh/overhang";
-import { weld } from "@/lib/orient/geometry";
+import { weld } from "@/lib/mesh/weld";
 import { soupFromSolid, type Solid } from "@/lib/orient/manifold-bridge";
 import { rotatePoints, rotationForDown } from "@/lib/orient/rotation";
 import { searchOrientations } from "@/lib/orient/search";
@@ -53,12 +52,12 @@ runs.sort((a, b) => a - b);
 const searchMs = runs[1]!;
 
 // Side by side: the height field for every direction, as a naive search would do.
-const mesh = weld(bigSoup.positions);
+const mesh = weld(bigSoup);
 const t1 = performance.now();
 const sample = 8;
 for (let i = 0; i < sample; i++) {
   const rot = rotationForDown([Math.sin(i), Math.cos(i), -0.5]);
-  supportVolumeHeightField(rotatePoints(mesh.vertices, rot.matrix), mesh.indices, { cellSize: 0.5, sinTheta: overhangLimit(45) });
+  supportVolumeHeightField(rotatePoints(mesh.vertices, rot.matrix), mesh.indices, { cellSize: 0.5, sinTheta: Math.SQRT1_2 });
 }
 const perField = ms(t1) / sample;
 

@@ -65,7 +65,7 @@ test.describe("the Bench", () => {
     // Bill of materials as CSV.
     const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: /Export bill of materials/ }).click()]);
     const csv = await readFile((await download.path())!, "utf8");
-    expect(csv.split("\r\n")[0]).toBe("Type,Name,Sub-assembly,Quantity,Material or source,Colour,Status,Unit price (cents),Due date");
+    expect(csv.split("\r\n")[0]).toBe("Type,Name,Sub-assembly,Quantity,Material or source,Colour,Status,Unit price (cents),Due date,Size as printed (mm)");
     expect(csv).toContain("printed part,perch,");
     expect(csv).toContain("printed part,roof panel,");
     expect(csv).toContain("bought hardware,M3 heat-set insert,");

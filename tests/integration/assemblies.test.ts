@@ -120,8 +120,8 @@ describe("bill of materials", () => {
     expect(filename).toBe("bike-rack-wall-bom.csv");
     const lines = csv.split("\r\n"); // RFC 4180 §2.1: records end with CRLF
     expect(lines.at(-1)).toBe("");
-    expect(lines).toContain('printed part,"Hook ""large""","Bike rack, wall",2,PETG,black,2 drafted,,'); // §2.5–2.7: quotes doubled inside quoted fields
+    expect(lines).toContain('printed part,"Hook ""large""","Bike rack, wall",2,PETG,black,2 drafted,,,'); // §2.5–2.7: quotes doubled inside quoted fields; no mesh, so no size
     // A formula-looking cell is defused (common practice: OWASP "CSV injection").
-    expect(lines).toContain(`bought hardware,"M5x20 screw, DIN 912","Bike rack, wall",8,'=HYPERLINK(),,ordered,12,`);
+    expect(lines).toContain(`bought hardware,"M5x20 screw, DIN 912","Bike rack, wall",8,'=HYPERLINK(),,ordered,12,,`);
   });
 });

@@ -90,6 +90,11 @@ describe("storing an orientation", () => {
     expect(saved.summary.layers).toBe(50); // 10 mm at the workshop's default 0.2 mm layers
     expect(saved.down[1]).toBeCloseTo(-1, 6);
     expect(saved.chosenBy).toBe(owner.name);
+    // On its face the T rests on the bar's 50 × 10 and the stem's 10 × 30: 800 mm², its largest flat face, nothing overhangs.
+    expect(saved.summary.bedContactArea).toBeCloseTo(800, 2);
+    expect(saved.summary.overhangArea).toBeCloseTo(0, 6);
+    expect(saved.summary.supportVolume).toBeCloseTo(0, 6);
+    expect(saved.summary).toMatchObject({ stable: true, label: "Lying on its largest flat face", turn: "tipped onto its front, 90° about X" });
     // The planner uses it: the instance's footprint and height are the stored ones, not the file's box (50 × 10 × 40).
     const eff = await effectiveGeometry(partId);
     expect(eff).not.toBeNull();

@@ -49,7 +49,7 @@ beforeAll(async () => {
   await db().insert(meshBlobs).ignore().values({ sha256: sha, sizeBytes: bytes.length });
   const [a] = await db().insert(assemblies).values({ ownerId: member.id, name: "Export assembly" }).$returningId();
   const [p] = await db().insert(parts).values({ assemblyId: a!.id, name: "Bar", quantity: 12, material: "PETG", colour: "blue", layerHeightMm: 0.2, walls: 2, infillPercent: 15 }).$returningId();
-  const analysis = { size: [60, 20, 10], volume_mm3: 12000, area_mm2: 2 * (1200 + 600 + 200), footprint_area_mm2: 1200 };
+  const analysis = { size: [60, 20, 10], watertight: true, volume_reliable: true, volume_mm3: 12000, area_mm2: 2 * (1200 + 600 + 200), footprint_area_mm2: 1200 };
   const [f] = await db().insert(partFiles).values({ partId: p!.id, sha256: sha, versionNo: 1, originalName: "bar.stl", units: "mm", format: "stl-binary", sizeX: 60, sizeY: 20, sizeZ: 10, volumeMm3: 12000, watertight: 1, analysis, uploadedBy: member.id }).$returningId();
   await db().update(parts).set({ currentFileId: f!.id }).where(eq(parts.id, p!.id));
   for (let c = 1; c <= 12; c++) await db().insert(partInstances).values({ partId: p!.id, copyNo: c, status: "ready" });

@@ -10,11 +10,16 @@ import { analyzeSoup, readMesh, writeStl } from "@/lib/mesh";
 import { solidFromSoup } from "@/lib/orient";
 import { createAssembly, shareAssembly } from "@/lib/server/assemblies";
 import { AppError } from "@/lib/server/errors";
-import { createPart, getPartDetail } from "@/lib/server/parts";
+import { bomCsv, createPart, getPartDetail } from "@/lib/server/parts";
+import { sendToQueue } from "@/lib/server/queue";
+import { quoteStoredAssembly } from "@/lib/server/quotes";
+import { queueSendInput } from "@/lib/validation/queue";
+import { seedPrinters } from "@/db/seed/printers";
 import type { SessionUser } from "@/lib/server/session";
 import { blobStore, setBlobStore } from "@/lib/server/storage";
 import { acceptSplit, getSplitLinks } from "@/lib/server/split";
 import { receiveUpload } from "@/lib/server/uploads";
+import { box } from "../fixtures/meshes";
 import { loadWasm, tShape } from "../unit/orient/fixtures";
 
 const root = mkdtempSync(path.join(tmpdir(), "pw-split-"));
@@ -113,6 +118,34 @@ describe("accepting a split", () => {
     // The pieces are part of the assembly, each with its own mesh to view.
     const detail = await getPartDetail(owner, res.pieces[0]!.partId);
     expect(detail.current?.id).toBe(res.pieces[0]!.fileId);
+  });
+
+  it("the parent leaves the BOM, the assembly quote and sending; its pieces take its place", async () => {
+    await seedPrinters(db());
+    const { csv } = await bomCsv(owner, assemblyId);
+    const names = csv.split("\r\n").slice(1).filter(Boolean).map((l) => l.split(",")[1]);
+    expect(names).not.toContain("Hook");
+    expect(names.filter((n) => n?.startsWith("Hook – piece"))).toHaveLength(2);
+    const q = await quoteStoredAssembly(owner, assemblyId);
+    const labels = q.priced?.lines.map((l) => l.label) ?? [];
+    expect(labels).not.toContain("Hook");
+    expect(labels.filter((l) => l?.startsWith("Hook – piece"))).toHaveLength(2);
+    expect(q.unpriced.map((u) => u.name)).not.toContain("Hook");
+    const e = await sendToQueue(owner, queueSendInput.parse({ partId, quantity: 1, wishedDate: "", priority: 0 })).catch((x: unknown) => x);
+    expect(e).toBeInstanceOf(AppError);
+    expect((e as AppError).message).toMatch(/split into pieces/);
+  });
+
+  it("adds registration pegs and holes on request: the pieces sum to the part less the clearance volume", async () => {
+    // A 40 × 30 × 60 block cut across at 30 mm: two pegs (5 mm, 4 mm deep) and two holes 0.3 mm wider and deeper.
+    const blockId = (await createPart(owner, assemblyId, { name: "Block", quantity: 1, material: "PLA", colour: "", notes: "" })).id;
+    const blockFile = (await receiveUpload(owner, blockId, body(writeStl(box(40, 30, 60))), { name: "block.stl", units: "mm" })).fileId;
+    const res = await acceptSplit(owner, blockId, { fileId: blockFile, quaternion: IDENTITY, cut: { kind: "plane", plane: { normal: [0, 0, 1], offset: 30 } }, pegs: { clearanceMm: 0.3 } });
+    expect(res.pieces).toHaveLength(2);
+    const prism32 = (r: number, h: number) => 16 * r * r * Math.sin((2 * Math.PI) / 32) * h; // regular 32-gon prism (closed form)
+    const clearance = 2 * (prism32(2.5 + 0.3, 4 + 0.3) - prism32(2.5, 4));
+    const sum = res.pieces.reduce((s, p) => s + p.volumeMm3, 0);
+    expect(Math.abs(sum + clearance - 72_000) / 72_000).toBeLessThan(0.001);
   });
 
   it("cannot split the same part twice", async () => {

@@ -1,7 +1,7 @@
 // Part status rules, checked against the workflow written in issue 4 ("Decisions already made"),
-// and the printer-fit rule against hand-worked sizes.
+// (the printer-fit rule is tested in tests/unit/rules/fit.test.ts).
 import { describe, expect, it } from "vitest";
-import { allowedTargets, countStatuses, fitPrinters, needsReason, partStatuses, planTransition, type PartStatus } from "@/lib/status";
+import { allowedTargets, countStatuses, needsReason, partStatuses, planTransition, type PartStatus } from "@/lib/status";
 
 // The issue's table of who moves what (source: issue 4, decisions already made).
 const member: [PartStatus, PartStatus][] = [["drafted", "ready"], ["ready", "drafted"], ["ready", "queued"], ["printed", "accepted"]];
@@ -47,23 +47,5 @@ describe("planTransition", () => {
   it("counts copies by status", () => {
     const c = countStatuses(["queued", "queued", "accepted"]);
     expect([c.queued, c.accepted, c.drafted]).toEqual([2, 1, 0]);
-  });
-});
-
-describe("fitPrinters", () => {
-  const beds = [
-    { id: 1, name: "Small", bedX: 180, bedY: 180, height: 180, materials: ["PLA", "PETG"] },
-    { id: 2, name: "Long", bedX: 300, bedY: 200, height: 250, materials: [] },
-  ];
-  it("turns the footprint 90° on the bed and checks height and material (worked by hand)", () => {
-    // 250 × 150 × 100: too long for 180 × 180; on 300 × 200 it fits as is.
-    expect(fitPrinters([250, 150, 100], "PLA", beds).map((f) => f.fits)).toEqual([false, true]);
-    // 150 × 250 only fits the long bed when turned: 250 ≤ 300 and 150 ≤ 200.
-    expect(fitPrinters([150, 250, 100], "PLA", beds)[1]?.fits).toBe(true);
-    // 190 tall is over the small printer's 180 mm.
-    expect(fitPrinters([50, 50, 190], "PLA", beds)[0]?.reason).toMatch(/height 190\.0 mm/);
-    // ABS is not on the small printer's list; a printer with no list takes anything.
-    expect(fitPrinters([50, 50, 50], "ABS", beds).map((f) => f.fits)).toEqual([false, true]);
-    expect(fitPrinters([50, 50, 50], "pla", beds)[0]?.fits).toBe(true);
   });
 });

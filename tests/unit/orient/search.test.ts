@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import type { Vec3 } from "@/lib/mesh/types";
 import { searchOrientations } from "@/lib/orient/search";
 import { applyOrientation, rotationForDown } from "@/lib/orient/rotation";
-import { weld } from "@/lib/orient/geometry";
+import { weld } from "@/lib/mesh/weld";
 import { supportVolumeHeightField } from "@/lib/orient/support";
 import { SearchCancelledError } from "@/lib/orient/types";
 import { box, loadWasm, lShape, soupBounds, tShape, toSoup, wedge } from "./fixtures";
@@ -48,7 +48,7 @@ describe("orientation search finds the obvious best", () => {
     expect(best.supportVolume).toBe(0);
     // Hanging the foot from the top (down = +Z) needs support under it (worked by hand:
     // 30 × 10 mm at 30 mm up: 9000 mm³), so no offered candidate may need more than the best.
-    const hung = weld(applyOrientation(lShape(w), rotationForDown([0, 0, 1])).positions);
+    const hung = weld(applyOrientation(lShape(w), rotationForDown([0, 0, 1])));
     const hv = supportVolumeHeightField(hung.vertices, hung.indices, { cellSize: 0.25, sinTheta: Math.SQRT1_2 }).volume;
     expect(Math.abs(hv - 9000) / 9000).toBeLessThan(0.02);
     for (const c of r.candidates) expect(c.supportVolume).toBeLessThan(hv);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { weld } from "@/lib/orient/geometry";
+import { weld } from "@/lib/mesh/weld";
 import { applyOrientation, rotationForDown } from "@/lib/orient/rotation";
 import { supportVolumeHeightField } from "@/lib/orient/support";
 import type { TriangleSoup } from "@/lib/mesh/types";
@@ -9,7 +9,7 @@ const SIN45 = Math.SQRT1_2;
 
 /** Height field at 0.25 mm cells, the documented default floor for small parts. */
 function support(soup: TriangleSoup, cellSize = 0.25) {
-  const m = weld(soup.positions);
+  const m = weld(soup);
   return supportVolumeHeightField(m.vertices, m.indices, { cellSize, sinTheta: SIN45 }).volume;
 }
 

@@ -26,7 +26,7 @@ export default async function PartPage({ params }: { params: Promise<{ partId: s
   return (
     <>
       <PartView id={id} initial={JSON.parse(JSON.stringify(detail)) as PartDetailWire} />
-      <PartQuote analysis={detail.current?.analysis} part={detail.part} />
+      <PartQuote analysis={detail.current?.analysis} part={detail.part} placed={detail.placed} />
       <PartPlanner
         partId={id}
         fileId={detail.current?.id ?? null}
