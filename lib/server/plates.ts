@@ -6,6 +6,7 @@ import { createAttendedCalendar } from "@/lib/calendar/attended-hours";
 import { machineCentsExact, materialCentsExact, quoteCost, roundCents, type CostBreakdown } from "@/lib/estimate";
 import { can } from "@/lib/permissions";
 import { UNATTENDED_CAUTION } from "@/lib/plan/plan";
+import type { SpoolChange } from "@/lib/plan/schema";
 import type { PartStatus } from "@/lib/status";
 import { plateStatusLabel, type PlateCancelInput, type PlateFailInput, type PlateFinishInput, type PlateMoveInput, type PlateStartInput } from "@/lib/validation/plates";
 import { AppError } from "./errors";
@@ -94,6 +95,16 @@ export async function currentPricing(d: Executor, printerId: number, type: Mater
     material: onSpool ?? cheapest ?? { name: type.toUpperCase(), pricePerKgCents: 0 },
     feeCents: ws?.fee ?? 0,
     currency: ws?.currency ?? "EUR",
+  };
+}
+
+/** The plan's spool change as the plate's columns (all NULL when the right spool is already on). */
+export function spoolChangeColumns(c: SpoolChange | null) {
+  return {
+    changeFromMaterial: c?.from?.material ?? null,
+    changeFromColour: c?.from?.color ?? null,
+    changeToMaterial: c?.to.material ?? null,
+    changeToColour: c?.to.color ?? null,
   };
 }
 

@@ -5,15 +5,17 @@ import { assemblies, materials, partFiles, partInstances, parts, plannerState, p
 import { MATERIALS } from "@/lib/estimate";
 import { can } from "@/lib/permissions";
 import { checkPartInstance } from "@/lib/plan/check-part";
+import { housingAllows, needsEnclosure } from "@/lib/plan/rules";
 import { planWorkshop } from "@/lib/plan/plan";
 import type { PlanMetrics } from "@/lib/plan/schema";
 import { MEMBER_MAX_PRIORITY, type QueuePriorityInput, type QueueSendInput } from "@/lib/validation/queue";
 import { AppError } from "./errors";
 import { SPOOL_MARGIN } from "./materials";
 import { partAccess, requirePartEdit } from "./parts";
+import { normColour, workshopSpools } from "./spool-stock";
 import { effectiveGeometry } from "./orientation";
 import { ANY_NOZZLE, BED_MARGIN_MM, buildPlanningInput, densities, densityOf, estimateInstance, instanceGeometry, materialKeyOf, planPrinterShapes, timingPrinter, type PartForEstimate } from "./planner";
-import { currentPricing, makeQuote, moveInstances, plateLabel } from "./plates";
+import { currentPricing, makeQuote, moveInstances, plateLabel, spoolChangeColumns } from "./plates";
 import type { SessionUser } from "./session";
 
 const invalid = (message: string, field: string) => new AppError("invalid", message, { [field]: [message] });
@@ -23,12 +25,12 @@ const invalid = (message: string, field: string) => new AppError("invalid", mess
  * has a mesh, some printer takes its material and holds its footprint and height, and a spool of
  * that material holds at least one copy with spare. Copies not yet in the workshop go first, ready before drafted.
  */
-export async function sendToQueue(user: SessionUser, input: QueueSendInput): Promise<{ queued: number; instanceIds: number[]; printers: string[]; gramsEach: number; minutesEach: number }> {
+export async function sendToQueue(user: SessionUser, input: QueueSendInput): Promise<{ queued: number; instanceIds: number[]; printers: string[]; gramsEach: number; minutesEach: number; waitingFor: string | null }> {
   if (!can(user.role, "queue:send")) throw new AppError("forbidden", "Members send their parts to the workshop; the workshop plans them.");
   await requirePartEdit(user, input.partId);
   if (input.priority > MEMBER_MAX_PRIORITY) throw invalid("Members may ask for normal or soon; the workshop sets rush priorities.", "priority");
   const [part] = await db()
-    .select({ name: parts.name, material: parts.material, layerHeightMm: parts.layerHeightMm, walls: parts.walls, infillPercent: parts.infillPercent, ownerId: assemblies.ownerId, fileId: partFiles.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, analysis: partFiles.analysis })
+    .select({ name: parts.name, material: parts.material, colour: parts.colour, layerHeightMm: parts.layerHeightMm, walls: parts.walls, infillPercent: parts.infillPercent, ownerId: assemblies.ownerId, fileId: partFiles.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, analysis: partFiles.analysis })
     .from(parts)
     .innerJoin(assemblies, eq(assemblies.id, parts.assemblyId))
     .leftJoin(partFiles, eq(partFiles.id, parts.currentFileId))
@@ -40,13 +42,21 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
   // The member's chosen orientation for the current file decides how the part lies on the bed.
   const geo = instanceGeometry({ sizeX: part.sizeX, sizeY: part.sizeY, sizeZ: part.sizeZ }, await effectiveGeometry(input.partId));
   const { all, shapes } = await planPrinterShapes();
-  const check = checkPartInstance({ footprint: geo.footprint, height: geo.height, material: type, nozzle: ANY_NOZZLE }, shapes, BED_MARGIN_MM);
+  if (needsEnclosure(type) && !shapes.some((p) => housingAllows(p, type) && p.materials.includes(type))) {
+    throw invalid(`${MATERIALS[type].name} gives off fumes and warps in drafts: it is printed only on an enclosed printer, and no printer here that takes it is marked enclosed.`, "partId");
+  }
+  const check = checkPartInstance({ footprint: geo.footprint, height: geo.height, material: type, nozzle: ANY_NOZZLE }, shapes.filter((p) => housingAllows(p, type)), BED_MARGIN_MM);
   if (!check.ok) throw invalid(`No printer here can take this part: ${check.reason.replace(/\b(pla|petg|abs|asa|tpu|nylon|pc)\b/g, (m) => m.toUpperCase())}.`, "partId");
   const able = all.filter((p) => check.printers.includes(String(p.id)));
   const est = estimateInstance({ ...part, sizeZ: geo.height, analysis: (part.analysis ?? {}) as PartForEstimate["analysis"] }, timingPrinter(able, type)!, densityOf(await densities(), type));
   const [stock] = await db().select({ grams: sql<number | null>`MAX(${spools.gramsRemaining})` }).from(spools).innerJoin(materials, eq(materials.id, spools.materialId)).where(eq(materials.type, type));
   const need = est.grams * SPOOL_MARGIN;
   if (Number(stock?.grams ?? 0) < need) throw invalid(`The workshop has no ${MATERIALS[type].name} spool holding the ${Math.ceil(need)} g one copy needs. Ask the workshop to stock it.`, "partId");
+  // A missing colour is a matter of stock, not of the part: the copies are accepted and wait in the
+  // queue with that reason until a spool of the colour is stocked (the plan says so); the member is told now.
+  const colour = normColour(part.colour);
+  const colourStocked = colour === "any" || (await workshopSpools()).some((s) => s.type === type && s.colour === colour);
+  const waitingFor = colourStocked ? null : `The workshop has no ${MATERIALS[type].name} ${part.colour.trim()} spool yet: the copies wait in the queue until one is stocked.`;
   const ids = await db().transaction(async (tx) => {
     const free = await tx
       .select({ id: partInstances.id, status: partInstances.status })
@@ -64,7 +74,7 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
     await tx.insert(queueEntries).values(rows).onDuplicateKeyUpdate({ set: { wishedDate: input.wishedDate, priority: input.priority, sentBy: user.id, sentAt: new Date(), version: sql`${queueEntries.version} + 1` } });
     return take.map((t) => t.id);
   });
-  return { queued: ids.length, instanceIds: ids, printers: able.map((p) => p.name), gramsEach: est.grams, minutesEach: est.minutes };
+  return { queued: ids.length, instanceIds: ids, printers: able.map((p) => p.name), gramsEach: est.grams, minutesEach: est.minutes, waitingFor };
 }
 
 interface Unplaced {
@@ -133,7 +143,7 @@ export async function replan(user: SessionUser, now = new Date()): Promise<{ pla
       const quote = makeQuote(its.map(({ q }) => ({ instanceId: q.instanceId, memberId: q.memberId, grams: q.grams, minutes: q.minutes })), price.printer, price.material, price.feeCents, price.currency);
       const [res] = await tx
         .insert(plates)
-        .values({ printerId, material: plate.material, colour: plate.color, plannedStart: new Date(plate.start), plannedEnd: new Date(plate.end), runsUnattended: plate.runs_unattended ? 1 : 0, caution: plate.caution, estimatedMinutes: quote.totalMinutes, estimatedGrams: quote.totalGrams, quote, quotedAt: now })
+        .values({ printerId, material: plate.material, colour: plate.color, plannedStart: new Date(plate.start), plannedEnd: new Date(plate.end), runsUnattended: plate.runs_unattended ? 1 : 0, caution: plate.caution, ...spoolChangeColumns(plate.spool_change), estimatedMinutes: quote.totalMinutes, estimatedGrams: quote.totalGrams, quote, quotedAt: now })
         .$returningId();
       const plateId = res!.id;
       await tx.insert(plateItems).values(its.map(({ it, q }) => ({ plateId, instanceId: q.instanceId, activeInstanceId: q.instanceId, memberId: q.memberId, x: it.x, y: it.y, rotated: it.rotated ? 1 : 0, sizeX: q.sizeX, sizeY: q.sizeY, sizeZ: q.sizeZ, minutes: q.minutes, grams: q.grams })));
