@@ -42,10 +42,11 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
   // The member's chosen orientation for the current file decides how the part lies on the bed.
   const geo = instanceGeometry({ sizeX: part.sizeX, sizeY: part.sizeY, sizeZ: part.sizeZ }, await effectiveGeometry(input.partId));
   const { all, shapes } = await planPrinterShapes();
-  if (needsEnclosure(type) && !shapes.some((p) => housingAllows(p, type) && p.materials.includes(type))) {
+  const takers = shapes.filter((p) => p.materials.includes(type));
+  if (needsEnclosure(type) && takers.length && !takers.some((p) => housingAllows(p, type))) {
     throw invalid(`${MATERIALS[type].name} gives off fumes and warps in drafts: it is printed only on an enclosed printer, and no printer here that takes it is marked enclosed.`, "partId");
   }
-  const check = checkPartInstance({ footprint: geo.footprint, height: geo.height, material: type, nozzle: ANY_NOZZLE }, shapes.filter((p) => housingAllows(p, type)), BED_MARGIN_MM);
+  const check = checkPartInstance({ footprint: geo.footprint, height: geo.height, material: type, nozzle: ANY_NOZZLE }, shapes.filter((p) => housingAllows(p, type) || !takers.length), BED_MARGIN_MM);
   if (!check.ok) throw invalid(`No printer here can take this part: ${check.reason.replace(/\b(pla|petg|abs|asa|tpu|nylon|pc)\b/g, (m) => m.toUpperCase())}.`, "partId");
   const able = all.filter((p) => check.printers.includes(String(p.id)));
   const est = estimateInstance({ ...part, sizeZ: geo.height, analysis: (part.analysis ?? {}) as PartForEstimate["analysis"] }, timingPrinter(able, type)!, densityOf(await densities(), type));
