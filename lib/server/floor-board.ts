@@ -240,8 +240,9 @@ export async function floorBoard(user: SessionUser, now = new Date()): Promise<F
     if (l) l.push(full);
     else byPrinter.set(plate.printerId, [full]);
   }
-  const from = new Date(now.getTime() - 6 * HOUR);
-  const to = new Date(Math.min(lastEnd + 2 * HOUR, now.getTime() + 7 * 24 * HOUR));
+  // The timeline zooms between a day and a week from here: the opening hours cover the widest view.
+  const from = new Date(now.getTime() - 12 * HOUR);
+  const to = new Date(Math.max(Math.min(lastEnd + 2 * HOUR, now.getTime() + 8 * 24 * HOUR), now.getTime() + 7 * 24 * HOUR));
   const cal = await cachedOpenIntervals(from, to);
   return {
     now: now.toISOString(),
