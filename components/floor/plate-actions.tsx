@@ -22,6 +22,8 @@ export interface ActionPlate {
   estimatedMinutes: number;
   estimatedGrams: number;
   change: FloorBoardWire["lanes"][number]["plates"][number]["change"];
+  /** The change Start needs against the spool loaded now. */
+  startChange: FloorBoardWire["lanes"][number]["plates"][number]["startChange"];
   moveTo: { id: number; name: string }[];
 }
 
@@ -59,7 +61,7 @@ export function PlateActions({ plate, spools, printerNames }: { plate: ActionPla
   };
   const f = (k: string) => `p${plate.id}-${k}`;
   const need = plate.estimatedGrams * SPOOL_MARGIN;
-  const blocked = (a: PlateAction) => (a === "move" && !plate.moveTo.length) || (a === "start" && !!plate.change && !spoolsFor(plate, spools).some((s) => s.grams >= need));
+  const blocked = (a: PlateAction) => (a === "move" && !plate.moveTo.length) || (a === "start" && !!plate.startChange && !spoolsFor(plate, spools).some((s) => s.grams >= need));
   return (
     <div className="flex flex-col gap-2">
       <div className="flex flex-wrap gap-2">
@@ -109,7 +111,7 @@ export function PlateActions({ plate, spools, printerNames }: { plate: ActionPla
           ) : null}
           <div className="flex gap-2">
             <Button type="submit" variant={open === "fail" || open === "cancel" ? "danger" : "primary"} disabled={act.isPending || blocked(open)}>
-              {act.isPending ? "Working…" : open === "start" && plate.change ? "Confirm: load the spool and start" : `Confirm: ${verb[open].toLowerCase()}`}
+              {act.isPending ? "Working…" : open === "start" && plate.startChange ? "Confirm: load the spool and start" : `Confirm: ${verb[open].toLowerCase()}`}
             </Button>
             <Button type="button" variant="ghost" onClick={() => setOpen(null)}>Back</Button>
           </div>
@@ -121,13 +123,14 @@ export function PlateActions({ plate, spools, printerNames }: { plate: ActionPla
 
 /** Start: when the plate needs a spool change, the operator picks the spool to load; the server loads it and starts in one go. */
 function StartFields({ plate, spools, printerNames, errors, id }: { plate: ActionPlate; spools: BoardSpools; printerNames: Map<number, string>; errors?: string[]; id: string }) {
-  if (!plate.change) return <p className="text-sm">Start plate {plate.id} now? Spool already on. Check the bed is clear and the nozzle and bed are at temperature before you leave it.</p>;
+  const change = plate.startChange;
+  if (!change) return <p className="text-sm">Start plate {plate.id} now? Spool already on. Check the bed is clear and the nozzle and bed are at temperature before you leave it.</p>;
   const need = plate.estimatedGrams * SPOOL_MARGIN;
   const fit = spoolsFor(plate, spools);
   const enough = fit.filter((s) => s.grams >= need);
   return (
     <div className="flex flex-col gap-2 text-sm">
-      <p className="font-medium">Spool change first: {spoolChangeWords(plate.change)}.</p>
+      <p className="font-medium">Spool change first: {spoolChangeWords(change)}.</p>
       {enough.length ? (
         <Field label="Spool to load" name={id} errors={errors} hint={`Needs about ${Math.ceil(need)} g with spare. The spool now on goes back on the shelf.`}>
           <Select id={id} name="spoolId" defaultValue={String(enough[0]!.id)} invalid={!!errors}>
@@ -140,7 +143,7 @@ function StartFields({ plate, spools, printerNames, errors, id }: { plate: Actio
           </Select>
         </Field>
       ) : (
-        <p>The workshop has no {spoolChangeWords(plate.change).replace(/^Load /, "").replace(/;.*$| \(.*$/, "")} spool holding {Math.ceil(need)} g. Stock one under Materials, or move or cancel the plate.</p>
+        <p>The workshop has no {change.to.material.toUpperCase()}{change.to.colour === "any" ? "" : ` ${change.to.colour}`} spool holding {Math.ceil(need)} g. Stock one under Materials, or move or cancel the plate.</p>
       )}
       <p className="text-ink-soft">Hot nozzle: unload and load the filament as the workshop&apos;s rules say.</p>
     </div>

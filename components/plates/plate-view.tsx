@@ -45,11 +45,11 @@ function Plate3d({ id, bed, version }: { id: number; bed: { x: number; y: number
 }
 
 /** The plate's actions with what the Floor knows of it (spool change, move targets, spools), from the same board query. */
-function StaffActions({ plate }: { plate: Omit<ActionPlate, "change" | "moveTo"> }) {
+function StaffActions({ plate }: { plate: Omit<ActionPlate, "change" | "startChange" | "moveTo"> }) {
   const board = useQuery(floorBoardQuery());
   const onBoard = board.data?.lanes.flatMap((l) => l.plates).find((x) => x.id === plate.id);
   const names = new Map((board.data?.lanes ?? []).map((l) => [l.id, l.name]));
-  return <PlateActions plate={{ ...plate, change: onBoard?.change ?? null, moveTo: onBoard?.moveTo ?? [] }} spools={board.data?.spools ?? []} printerNames={names} />;
+  return <PlateActions plate={{ ...plate, change: onBoard?.change ?? null, startChange: onBoard?.startChange ?? null, moveTo: onBoard?.moveTo ?? [] }} spools={board.data?.spools ?? []} printerNames={names} />;
 }
 
 export function PlateView({ id, initial, timezone, caution }: { id: number; initial: PlateDetailWire; timezone: string; caution: string }) {

@@ -34,10 +34,14 @@ export interface BoardPlate {
    * For a planned plate, the spool change before it, worked out from what is loaded now and the
    * plates ahead of it on the same printer (null = the right spool is already on by then).
    */
-  change: { from: { material: string; colour: string } | null; to: { material: string; colour: string } } | null;
+  change: SpoolChangeWire | null;
+  /** For a planned plate, the change Start needs against the spool loaded right now (the plan's may assume plates before it). */
+  startChange: SpoolChangeWire | null;
   /** For a planned plate, the printers it may move to (plate-fit.ts, the rule movePlate checks). */
   moveTo: { id: number; name: string }[];
 }
+
+export type SpoolChangeWire = { from: { material: string; colour: string } | null; to: { material: string; colour: string } };
 
 export interface BoardSpool {
   id: number;
@@ -85,7 +89,7 @@ export interface FloorBoard {
   spools: BoardSpool[];
 }
 
-type RawPlate = Omit<BoardPlate, "runsUnattended" | "change" | "moveTo"> & { runsUnattended: number; shape: { x: number; y: number; r: number; sx: number; sy: number; sz: number }[] | null };
+type RawPlate = Omit<BoardPlate, "runsUnattended" | "change" | "startChange" | "moveTo"> & { runsUnattended: number; shape: { x: number; y: number; r: number; sx: number; sy: number; sz: number }[] | null };
 type RawLane = { id: number; name: string; state: string; spoolMaterial: string | null; spoolColour: string | null; spoolType: string | null; bedX: number; bedY: number; height: number; enclosed: number; materials: string | null };
 type RawWaiting = Omit<BoardWaiting, "reason">;
 
@@ -141,7 +145,7 @@ const iso = (s: string | null): string | null => (s === null ? null : new Date(`
 interface BoardData {
   lanes: (Omit<BoardLane, "plates"> & { fit: FitPrinter })[];
   /** Sorted by planned start; `endedMs` for the per-request "ended in the last day" filter. */
-  plates: { plate: Omit<BoardPlate, "change" | "moveTo">; endedMs: number | null; shape: FitItem[] }[];
+  plates: { plate: Omit<BoardPlate, "change" | "startChange" | "moveTo">; endedMs: number | null; shape: FitItem[] }[];
   waiting: BoardWaiting[];
   spools: BoardSpool[];
   lastRunAt: string | null;
@@ -220,22 +224,29 @@ export async function floorBoard(user: SessionUser, now = new Date()): Promise<F
   const byPrinter = new Map<number, BoardPlate[]>();
   const fits = data.lanes.map((l) => l.fit);
   const held = new Map(data.lanes.map((l) => [l.id, l.spool ? { material: l.spool.type, colour: normColour(l.spool.colour) } : null]));
+  const loadedNow = new Map(held);
   let lastEnd = now.getTime() + 36 * HOUR;
   // Plates come sorted by planned start, so each printer's spool is followed plate by plate.
   const live = (s: PlateStatus) => s === "planned" || s === "printing";
+  type Held = { material: string; colour: string } | null;
+  const changeFrom = (from: Held, to: { material: string; colour: string }): SpoolChangeWire | null =>
+    !from || from.material !== to.material || (to.colour !== "any" && from.colour !== to.colour) ? { from, to } : null;
   for (const { plate, endedMs, shape } of data.plates) {
     if (!live(plate.status) && (endedMs === null || endedMs < since)) continue;
     lastEnd = Math.max(lastEnd, Date.parse(plate.plannedEnd));
     let change: BoardPlate["change"] = null;
+    let startChange: BoardPlate["startChange"] = null;
     let moveTo: BoardPlate["moveTo"] = [];
     if (live(plate.status)) {
       const to = { material: plate.material, colour: normColour(plate.colour) };
-      const from = held.get(plate.printerId) ?? null;
-      if (plate.status === "planned" && (!from || from.material !== to.material || (to.colour !== "any" && from.colour !== to.colour))) change = { from, to };
+      if (plate.status === "planned") {
+        change = changeFrom(held.get(plate.printerId) ?? null, to);
+        startChange = changeFrom(loadedNow.get(plate.printerId) ?? null, to);
+      }
       held.set(plate.printerId, to);
     }
     if (plate.status === "planned") moveTo = moveTargets(plate, shape, fits, BED_MARGIN_MM).map((p) => ({ id: p.id, name: p.name }));
-    const full: BoardPlate = { ...plate, change, moveTo };
+    const full: BoardPlate = { ...plate, change, startChange, moveTo };
     const l = byPrinter.get(plate.printerId);
     if (l) l.push(full);
     else byPrinter.set(plate.printerId, [full]);

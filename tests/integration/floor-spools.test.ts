@@ -145,6 +145,8 @@ describe("re-plan, start through the change, move, fail", () => {
     const board = await floorBoard(operator);
     const onBoard = board.lanes.flatMap((l) => l.plates).find((p) => p.id === green!.id);
     expect(onBoard?.change).toEqual({ from: { material: "pla", colour: "white" }, to: { material: "petg", colour: "green" } });
+    // Nothing runs before it on that printer, so Start needs the same change against the spool on now.
+    expect(onBoard?.startChange).toEqual(onBoard?.change);
     expect(board.spools.map((s) => s.label)).toContain("FS-PETG-G");
   });
 
