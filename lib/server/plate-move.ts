@@ -57,7 +57,7 @@ export async function movePlate(user: SessionUser, id: number, input: PlateMoveI
     const end = new Date(start.getTime() + quote.totalMinutes * 60_000);
     await tx
       .update(plates)
-      .set({ printerId: t.id, plannedStart: start, plannedEnd: end, quote, quotedAt: new Date(), estimatedMinutes: quote.totalMinutes, ...(await unattended(tx, start, end)), ...bump })
+      .set({ printerId: t.id, plannedStart: start, plannedEnd: end, quote, quotedAt: new Date(), estimatedMinutes: quote.totalMinutes, ...(await unattended(tx, start, end, p.material)), ...bump })
       .where(eq(plates.id, id));
     return { version: p.version + 1 };
   });

@@ -5,7 +5,8 @@ import { assemblies, attendedHours, materials, partInstances, parts, plateItems,
 import { createAttendedCalendar } from "@/lib/calendar/attended-hours";
 import { machineCentsExact, materialCentsExact, quoteCost, roundCents, type CostBreakdown } from "@/lib/estimate";
 import { can } from "@/lib/permissions";
-import { UNATTENDED_CAUTION } from "@/lib/plan/plan";
+import { FUMES_CAUTION, UNATTENDED_CAUTION } from "@/lib/plan/plan";
+import { needsEnclosure } from "@/lib/plan/rules";
 import type { SpoolChange } from "@/lib/plan/schema";
 import type { PartStatus } from "@/lib/status";
 import { plateStatusLabel, type PlateCancelInput, type PlateFailInput, type PlateFinishInput, type PlateStartInput } from "@/lib/validation/plates";
@@ -155,12 +156,14 @@ export async function lockPlate(tx: Tx, id: number, version: number, allowed: Pl
 }
 
 /** Whether a run from start to end is still going at the close of the spell it starts in (the planner's rule). */
-export async function unattended(d: Executor, start: Date, end: Date): Promise<{ runsUnattended: number; caution: string | null }> {
+export async function unattended(d: Executor, start: Date, end: Date, material?: string): Promise<{ runsUnattended: number; caution: string | null }> {
   const [ws] = await d.select({ tz: workshopSettings.timezone }).from(workshopSettings).where(eq(workshopSettings.id, 1));
   const hours = await d.select({ weekday: attendedHours.weekday, open: attendedHours.opensAt, close: attendedHours.closesAt }).from(attendedHours);
   const closing = createAttendedCalendar(ws?.tz ?? "UTC", hours).closingAfter(start.getTime());
   const late = closing !== null && end.getTime() > closing;
-  return { runsUnattended: late ? 1 : 0, caution: late ? UNATTENDED_CAUTION : null };
+  // The same cautions the plan gives (lib/plan/plan.ts): running past closing, and ABS/ASA fumes.
+  const cautions = [late ? UNATTENDED_CAUTION : null, material && needsEnclosure(material) ? FUMES_CAUTION : null].filter(Boolean);
+  return { runsUnattended: late ? 1 : 0, caution: cautions.length ? cautions.join(" ") : null };
 }
 
 export const bump = { version: sql`${plates.version} + 1`, updatedAt: new Date() };
@@ -196,7 +199,7 @@ export async function startPlate(user: SessionUser, id: number, input: PlateStar
     const end = new Date(now.getTime() + quote.totalMinutes * 60_000);
     await tx
       .update(plates)
-      .set({ status: "printing", startedAt: now, plannedStart: now, plannedEnd: end, quote, quotedAt: now, estimatedMinutes: quote.totalMinutes, ...(await unattended(tx, now, end)), ...bump })
+      .set({ status: "printing", startedAt: now, plannedStart: now, plannedEnd: end, quote, quotedAt: now, estimatedMinutes: quote.totalMinutes, ...(await unattended(tx, now, end, p.material)), ...bump })
       .where(eq(plates.id, id));
     const items = await itemsOf(tx, id);
     await moveInstances(tx, items.map((i) => i.instanceId), "plated", ["printing"], user.id, `Started on ${plateLabel(id)}`);

@@ -24,6 +24,25 @@ test("re-plan, start a plate through its spool change, move a plate, see when th
   // The status line agrees with the list: it counts the plates listed and never says there is no plan.
   await expect(op.getByTestId("plan-status")).toContainText(/\d+ printing, \d+ planned · last re-plan/);
 
+  // The timeline, at both zooms: day labels are there and no two labels overlap (the now-label included).
+  const timeline = op.getByRole("img", { name: /^Timeline of \d+ printers/ });
+  for (const zoom of ["Day", "Week"]) {
+    await op.getByRole("button", { name: zoom, exact: true }).click();
+    await expect(op.getByRole("button", { name: zoom, exact: true })).toHaveAttribute("aria-pressed", "true");
+    const boxes = await timeline.evaluate((svg) => [...svg.querySelectorAll("text")].filter((t) => t.textContent).map((t) => ({ text: t.textContent!, ...t.getBoundingClientRect().toJSON() as DOMRect })));
+    expect(boxes.some((bx) => /^(Mon|Tue|Wed|Thu|Fri|Sat|Sun) \d{1,2} \w{3}$/.test(bx.text)), `${zoom}: a day label`).toBe(true);
+    expect(boxes.some((bx) => bx.text.startsWith("now "))).toBe(true);
+    for (let i = 0; i < boxes.length; i++) {
+      for (let j = i + 1; j < boxes.length; j++) {
+        const a = boxes[i]!;
+        const c = boxes[j]!;
+        const overlap = a.left < c.right - 0.5 && c.left < a.right - 0.5 && a.top < c.bottom - 0.5 && c.top < a.bottom - 0.5;
+        expect(overlap, `${zoom}: "${a.text}" overlaps "${c.text}"`).toBe(false);
+      }
+    }
+    await timeline.screenshot({ path: `test-results/timeline-${zoom.toLowerCase()}.png` });
+  }
+
   // A planned plate whose printer is free and needs another spool now.
   let b = await board(opCtx.request);
   const busy = new Set(b.lanes.filter((l) => l.plates.some((p) => p.status === "printing")).map((l) => l.id));
