@@ -50,7 +50,12 @@ function fitText(text: string, width: number): string {
 }
 
 export function Gantt({ board }: { board: FloorBoardWire }) {
-  const [zoom, setZoom] = useState<Zoom>("day");
+  // Open on the day unless the next planned plate starts beyond it (a closed weekend): then the week.
+  const [zoom, setZoom] = useState<Zoom>(() => {
+    const dayEnd = Date.parse(board.now) - zooms.day.before + zooms.day.span;
+    const starts = board.lanes.flatMap((l) => l.plates.filter((p) => p.status === "planned").map((p) => Date.parse(p.plannedStart)));
+    return starts.length === 0 || Math.min(...starts) < dayEnd ? "day" : "week";
+  });
   const z = zooms[zoom];
   const now = Date.parse(board.now);
   const t0 = now - z.before;
