@@ -4,7 +4,7 @@ import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useEffect, useState } from "react";
 import { PlateActions, type ActionPlate } from "@/components/floor/plate-actions";
-import { hmm, timeIn } from "@/components/floor/format";
+import { hmm, spoolChangeWords, timeIn } from "@/components/floor/format";
 import { useMeshWorker } from "@/components/mesh/use-mesh-worker";
 import { Notice } from "@/components/ui/notice";
 import { PageHeader } from "@/components/ui/page-header";
@@ -49,7 +49,12 @@ function StaffActions({ plate }: { plate: Omit<ActionPlate, "change" | "startCha
   const board = useQuery(floorBoardQuery());
   const onBoard = board.data?.lanes.flatMap((l) => l.plates).find((x) => x.id === plate.id);
   const names = new Map((board.data?.lanes ?? []).map((l) => [l.id, l.name]));
-  return <PlateActions plate={{ ...plate, change: onBoard?.change ?? null, startChange: onBoard?.startChange ?? null, moveTo: onBoard?.moveTo ?? [] }} spools={board.data?.spools ?? []} printerNames={names} />;
+  return (
+    <div className="flex flex-col gap-2">
+      {onBoard && plate.status === "planned" ? <p className="text-sm" data-testid="plate-spool">{spoolChangeWords(onBoard.change)}</p> : null}
+      <PlateActions plate={{ ...plate, change: onBoard?.change ?? null, startChange: onBoard?.startChange ?? null, moveTo: onBoard?.moveTo ?? [] }} spools={board.data?.spools ?? []} printerNames={names} />
+    </div>
+  );
 }
 
 export function PlateView({ id, initial, timezone, caution }: { id: number; initial: PlateDetailWire; timezone: string; caution: string }) {
