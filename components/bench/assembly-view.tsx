@@ -1,6 +1,7 @@
 "use client";
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
+import type { ReactNode } from "react";
 import { EmptyState, Notice } from "@/components/ui/notice";
 import { PageHeader } from "@/components/ui/page-header";
 import { assemblyQuery, type AssemblyDetailWire } from "@/lib/queries/assemblies";
@@ -63,7 +64,7 @@ function Blockers({ b, printers }: { b: AssemblyDetailWire["blockers"]; printers
   );
 }
 
-export function AssemblyView({ id, initial, defaults }: { id: number; initial: AssemblyDetailWire; defaults: string }) {
+export function AssemblyView({ id, initial, defaults, completion }: { id: number; initial: AssemblyDetailWire; defaults: string; completion?: ReactNode }) {
   const q = useQuery({ ...assemblyQuery(id), initialData: initial });
   const d = q.data;
   const where = new Map(d.nodes.map((n) => [n.id, n.name]));
@@ -84,6 +85,7 @@ export function AssemblyView({ id, initial, defaults }: { id: number; initial: A
         actions={<a href={`/api/assemblies/${id}/bom`} download className="rounded-md border border-rule bg-sheet px-3.5 py-2 text-sm font-medium hover:bg-paper">Export bill of materials (CSV)</a>}
       />
       {q.isError ? <Notice tone="fail" title="The latest changes could not be loaded.">{q.error.message}</Notice> : null}
+      {completion ? <div className="mb-6">{completion}</div> : null}
       <div className="grid gap-8 lg:grid-cols-[1fr_22rem]">
         <div className="flex flex-col gap-8">
           <section aria-labelledby="tree-h" className="flex flex-col gap-2">

@@ -7,7 +7,7 @@ import { EmptyState, Notice } from "@/components/ui/notice";
 import { queryKeys } from "@/lib/queries/keys";
 import { floorBoardQuery, sendJsonTo, type FloorBoardWire } from "@/lib/queries/queue";
 import { plateStatusLabel } from "@/lib/validation/plates";
-import { hmm, timeIn } from "./format";
+import { hmm, spoolChangeWords, timeIn } from "./format";
 import { Gantt } from "./gantt";
 import { PlateActions } from "./plate-actions";
 import { WaitingList } from "./waiting-list";
@@ -23,16 +23,22 @@ export function FloorBoard({ initial, caution }: { initial: FloorBoardWire; caut
     onSettled: () => Promise.all([qc.invalidateQueries({ queryKey: queryKeys.queue.all }), qc.invalidateQueries({ queryKey: queryKeys.plates.all })]),
   });
   const live = b.lanes.flatMap((l) => l.plates.filter((p) => p.status === "planned" || p.status === "printing").map((p) => ({ ...p, printerName: l.name })));
-  const printers = b.lanes.map((l) => ({ id: l.id, name: l.name }));
+  const names = new Map(b.lanes.map((l) => [l.id, l.name]));
   const overnight = live.filter((p) => p.runsUnattended);
+  const planned = live.filter((p) => p.status === "planned").length;
+  const printing = live.length - planned;
   return (
     <div className="flex flex-col gap-6">
       <div className="flex flex-wrap items-center gap-3">
         <Button type="button" onClick={() => plan.mutate()} disabled={plan.isPending}>{plan.isPending ? "Planning…" : "Re-plan"}</Button>
         {plan.isPending ? <progress aria-label="Planning" className="h-2 w-40" /> : null}
-        <p className="text-sm text-ink-soft">
-          Re-planning replaces every plate not yet started. {b.lastRunAt ? `Last plan ${timeIn(b.lastRunAt, b.timezone)}` : "No plan yet."}
-          {b.metrics ? ` · ${b.metrics.plates} plates, mean bed fill ${Math.round(b.metrics.mean_bed_fill * 100)} %, ${b.metrics.late_instances} late` : ""}
+        <p className="text-sm text-ink-soft" data-testid="plan-status">
+          {live.length ? `${printing} printing, ${planned} planned` : "No plates lined up"}
+          {b.lastRunAt ? ` · last re-plan ${timeIn(b.lastRunAt, b.timezone)}` : live.length ? " · not re-planned here yet" : ""}
+          {b.metrics && b.lastRunAt
+            ? ` (${b.metrics.plates} plates, mean bed fill of the plates ${Math.round(b.metrics.mean_bed_fill * 100)} %, ${b.metrics.spool_changes ?? 0} spool changes, ${b.metrics.late_instances} late)`
+            : ""}
+          . Re-planning replaces every plate not yet started.
         </p>
       </div>
       {plan.isError ? <Notice tone="fail" title={plan.error.message} /> : null}
@@ -54,7 +60,13 @@ export function FloorBoard({ initial, caution }: { initial: FloorBoardWire; caut
                   <span className="num text-ink-soft">{timeIn(p.startedAt ?? p.plannedStart, b.timezone)} → {timeIn(p.plannedEnd, b.timezone)} · {hmm(p.estimatedMinutes)} · {p.estimatedGrams.toFixed(0)} g · {p.items} parts · {p.material.toUpperCase()} {p.colour}</span>
                   {p.runsUnattended ? <span className="rounded border border-warn/40 bg-warn-wash px-1.5 text-xs">☾ runs past closing</span> : null}
                 </div>
-                <PlateActions plate={p} printers={printers} />
+                {p.status === "planned" ? (
+                  <p className={`text-sm ${p.change ? "font-medium" : "text-ink-soft"}`} data-testid={`spool-${p.id}`}>
+                    <span aria-hidden>{p.change ? "⇄ " : "✓ "}</span>
+                    {spoolChangeWords(p.change)}
+                  </p>
+                ) : null}
+                <PlateActions plate={p} spools={b.spools} printerNames={names} />
               </li>
             ))}
           </ul>

@@ -3,14 +3,15 @@
 import { useQuery } from "@tanstack/react-query";
 import Link from "next/link";
 import { useEffect, useState } from "react";
-import { PlateActions } from "@/components/floor/plate-actions";
-import { hmm, timeIn } from "@/components/floor/format";
+import { PlateActions, type ActionPlate } from "@/components/floor/plate-actions";
+import { hmm, spoolChangeWords, timeIn } from "@/components/floor/format";
 import { useMeshWorker } from "@/components/mesh/use-mesh-worker";
 import { Notice } from "@/components/ui/notice";
 import { PageHeader } from "@/components/ui/page-header";
 import { Viewer } from "@/components/viewer/viewer";
 import type { ViewerArrays } from "@/lib/mesh/worker-protocol";
 import { plateQuery, type PlateDetailWire } from "@/lib/queries/plates";
+import { floorBoardQuery } from "@/lib/queries/queue";
 import { plateStatusLabel } from "@/lib/validation/plates";
 import { BedLayout } from "./bed-layout";
 
@@ -43,6 +44,19 @@ function Plate3d({ id, bed, version }: { id: number; bed: { x: number; y: number
   );
 }
 
+/** The plate's actions with what the Floor knows of it (spool change, move targets, spools), from the same board query. */
+function StaffActions({ plate }: { plate: Omit<ActionPlate, "change" | "startChange" | "moveTo"> }) {
+  const board = useQuery(floorBoardQuery());
+  const onBoard = board.data?.lanes.flatMap((l) => l.plates).find((x) => x.id === plate.id);
+  const names = new Map((board.data?.lanes ?? []).map((l) => [l.id, l.name]));
+  return (
+    <div className="flex flex-col gap-2">
+      {onBoard && plate.status === "planned" ? <p className="text-sm" data-testid="plate-spool">{spoolChangeWords(onBoard.change)}</p> : null}
+      <PlateActions plate={{ ...plate, change: onBoard?.change ?? null, startChange: onBoard?.startChange ?? null, moveTo: onBoard?.moveTo ?? [] }} spools={board.data?.spools ?? []} printerNames={names} />
+    </div>
+  );
+}
+
 export function PlateView({ id, initial, timezone, caution }: { id: number; initial: PlateDetailWire; timezone: string; caution: string }) {
   const q = useQuery({ ...plateQuery(id), initialData: initial });
   const { plate: p, items, staff } = q.data;
@@ -61,7 +75,7 @@ export function PlateView({ id, initial, timezone, caution }: { id: number; init
         {p.runsUnattended ? <Notice tone="warn" title="☾ Runs unattended past closing">{caution}</Notice> : null}
         {p.status === "finished" && p.shelfLabel ? <Notice tone="ok" title={`Finished: the parts wait at ${p.shelfLabel}`}>{p.actualMinutes ? `Took ${hmm(p.actualMinutes)}` : null}{p.actualGrams !== null ? `, ${p.actualGrams} g` : ""}</Notice> : null}
         {p.status === "failed" || p.status === "cancelled" ? <Notice tone="fail" title={`${plateStatusLabel[p.status]}${p.reason ? `: ${p.reason}` : ""}`}>Its parts went back to the queue.</Notice> : null}
-        {staff ? <PlateActions plate={{ id: p.id, status: p.status, version: p.version, printerId: p.printerId, estimatedMinutes: p.estimatedMinutes, estimatedGrams: p.estimatedGrams }} printers={[]} /> : null}
+        {staff ? <StaffActions plate={{ id: p.id, status: p.status, version: p.version, printerId: p.printerId, material: p.material, colour: p.colour, estimatedMinutes: p.estimatedMinutes, estimatedGrams: p.estimatedGrams }} /> : null}
         <div className="grid gap-6 lg:grid-cols-2">
           <section aria-labelledby="bed-h" className="flex flex-col gap-2">
             <h2 id="bed-h">Bed from above</h2>

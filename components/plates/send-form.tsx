@@ -13,7 +13,7 @@ import { partScheduleQuery, sendJsonTo } from "@/lib/queries/queue";
 import { partStatusLabel } from "@/lib/status";
 import { MEMBER_MAX_PRIORITY, priorityLabel } from "@/lib/validation/queue";
 
-interface SendResult { queued: number; printers: string[]; gramsEach: number; minutesEach: number }
+interface SendResult { queued: number; printers: string[]; gramsEach: number; minutesEach: number; waitingFor: string | null }
 
 const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString("en-GB", { weekday: "short", day: "numeric", month: "short", hour: "2-digit", minute: "2-digit" }) : "—");
 
@@ -33,7 +33,7 @@ export function SendToWorkshop({ partId, canEdit }: { partId: number; canEdit: b
     <section aria-labelledby="workshop-h" className="flex flex-col gap-3">
       <h2 id="workshop-h">In the workshop</h2>
       {/* Outside the form: sending the last free copies hides the form, the confirmation stays. */}
-      {send.isSuccess ? <Notice tone="ok" title={`Sent ${send.data.queued} ${send.data.queued === 1 ? "copy" : "copies"}.`}>Fits {send.data.printers.join(", ")}; about {send.data.gramsEach.toFixed(0)} g each.</Notice> : null}
+      {send.isSuccess ? <Notice tone="ok" title={`Sent ${send.data.queued} ${send.data.queued === 1 ? "copy" : "copies"}.`}>Fits {send.data.printers.join(", ")}; about {send.data.gramsEach.toFixed(0)} g each.{send.data.waitingFor ? ` ${send.data.waitingFor}` : ""}</Notice> : null}
       {canEdit && free > 0 ? (
         <form noValidate aria-label="Send to the workshop" className="flex flex-col gap-3 rounded-lg border border-rule bg-sheet p-4" onSubmit={(e: FormEvent<HTMLFormElement>) => { e.preventDefault(); send.mutate(formValues(e.currentTarget)); }}>
           <h3 className="font-semibold">Send to the workshop</h3>

@@ -34,6 +34,7 @@ function Calibration({ c }: { c: PrinterDto["calibration"] }) {
 
 function PrinterCard({ p, currency, timezone, canManage, canSetState }: Omit<Props, "initial"> & { p: PrinterDto }) {
   const [editing, setEditing] = useState(false);
+  const [saved, setSaved] = useState(false);
   return (
     <li className="rounded-lg border border-rule bg-sheet p-4" aria-label={p.name}>
       <div className="flex flex-wrap items-start justify-between gap-3">
@@ -74,11 +75,14 @@ function PrinterCard({ p, currency, timezone, canManage, canSetState }: Omit<Pro
       {canManage ? (
         <div className="mt-3 border-t border-rule pt-3">
           {editing ? (
-            <PrinterForm key={p.version} printer={p} onDone={() => setEditing(false)} />
+            <PrinterForm key={p.version} printer={p} onDone={(ok) => { setEditing(false); setSaved(!!ok); }} />
           ) : (
-            <Button variant="ghost" onClick={() => setEditing(true)} aria-label={`Edit ${p.name}`}>
-              Edit printer and rate
-            </Button>
+            <div className="flex flex-col gap-2">
+              {saved ? <Notice tone="ok" title={`${p.name} saved.`} /> : null}
+              <Button variant="ghost" onClick={() => { setEditing(true); setSaved(false); }} aria-label={`Edit ${p.name}`}>
+                Edit printer and rate
+              </Button>
+            </div>
           )}
         </div>
       ) : null}

@@ -54,7 +54,7 @@ function toValues(p?: PrinterDto): Values {
 }
 
 /** Adds a printer, or edits one (rate included) when `printer` is given. Admins only; the server checks. */
-export function PrinterForm({ printer, onDone }: { printer?: PrinterDto; onDone?: () => void }) {
+export function PrinterForm({ printer, onDone }: { printer?: PrinterDto; onDone?: (saved?: boolean) => void }) {
   const qc = useQueryClient();
   const [values, setValues] = useState<Values>(() => toValues(printer));
   const [fieldErrors, setFieldErrors] = useState<Record<string, string[]>>({});
@@ -68,7 +68,7 @@ export function PrinterForm({ printer, onDone }: { printer?: PrinterDto; onDone?
       if (!printer) setValues(toValues());
       await qc.invalidateQueries({ queryKey: queryKeys.printers.all });
       await qc.invalidateQueries({ queryKey: queryKeys.quotes.all });
-      onDone?.();
+      onDone?.(true);
     },
     onError: (e) => setFieldErrors(e instanceof ApiError && e.fieldErrors ? e.fieldErrors : {}),
   });
@@ -87,6 +87,7 @@ export function PrinterForm({ printer, onDone }: { printer?: PrinterDto; onDone?
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={printer ? `Edit ${printer.name}` : "Add a printer"}>
       {save.isError ? <Notice tone="fail" title={save.error.message} /> : null}
+      {save.isSuccess && !printer ? <Notice tone="ok" title="Printer added." /> : null}
       <Field label="Name" name={id("name")} errors={fieldErrors.name}>
         <TextInput id={id("name")} name={id("name")} value={values.name} invalid={!!fieldErrors.name} onChange={(e) => setValues((v) => ({ ...v, name: e.target.value }))} />
       </Field>
@@ -132,13 +133,14 @@ export function PrinterForm({ printer, onDone }: { printer?: PrinterDto; onDone?
       <label className="flex items-center gap-2 text-sm">
         <input type="checkbox" checked={values.enclosed} onChange={(e) => setValues((v) => ({ ...v, enclosed: e.target.checked }))} />
         Enclosed build chamber
+        <span className="text-xs text-ink-soft">(ABS and ASA are planned only on enclosed printers: fumes and warping)</span>
       </label>
       <div className="flex gap-3">
         <Button type="submit" disabled={save.isPending}>
           {save.isPending ? "Saving…" : printer ? "Save printer" : "Add printer"}
         </Button>
         {onDone ? (
-          <Button type="button" variant="secondary" onClick={onDone}>
+          <Button type="button" variant="secondary" onClick={() => onDone(false)}>
             Cancel
           </Button>
         ) : null}

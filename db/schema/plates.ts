@@ -53,6 +53,11 @@ export const plates = mysqlTable(
     endedAt: at("ended_at"),
     runsUnattended: int("runs_unattended").notNull().default(0),
     caution: varchar("caution", { length: 500 }),
+    /** The spool change the plan asks for before this plate (NULL = the right spool is already on). */
+    changeFromMaterial: varchar("change_from_material", { length: 20 }),
+    changeFromColour: varchar("change_from_colour", { length: 40 }),
+    changeToMaterial: varchar("change_to_material", { length: 20 }),
+    changeToColour: varchar("change_to_colour", { length: 40 }),
     estimatedMinutes: double("estimated_minutes").notNull(),
     estimatedGrams: double("estimated_grams").notNull(),
     actualMinutes: double("actual_minutes"),

@@ -14,6 +14,10 @@ export const workshopSettings = mysqlTable("workshop_settings", {
   /** Fixed fee per plate, smallest currency unit. */
   plateFeeCents: int("plate_fee_cents").notNull().default(0),
   safetyNote: varchar("safety_note", { length: 1000 }).notNull().default(""),
+  /** May plates run while nobody is there (nights, weekends)? Default yes, as before the setting. */
+  unattendedAllowed: int("unattended_allowed").notNull().default(1),
+  /** Longest stretch a plate may run unattended, hours; NULL = no cap. */
+  unattendedMaxHours: double("unattended_max_hours"),
   version: int("version").notNull().default(1),
   updatedAt: datetime("updated_at", { mode: "date", fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
 });

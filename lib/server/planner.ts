@@ -23,6 +23,7 @@ import { DEFAULT_SETTINGS, estimatePart, MATERIALS, NO_CALIBRATION, type Calibra
 import { parsePlanInstance, type PlanInstance, type PlanInstanceInput } from "@/lib/plan/schema";
 import type { Executor } from "./mail";
 import { calibrationFor } from "./printers";
+import { colourFor, normColour, workshopSpools } from "./spool-stock";
 import { LINE_WIDTH_PER_NOZZLE } from "./quotes";
 
 /** Clear border on every side of the bed and the gap between parts, mm: common practice, no source. */
@@ -50,6 +51,7 @@ export interface PlanPrinter {
   volumetricFlowMm3s: number;
   perLayerSeconds: number;
   startupMinutes: number;
+  enclosed: boolean;
   state: "available" | "busy" | "maintenance";
   expectedBackAt: Date | null;
   materials: MaterialType[];
@@ -71,6 +73,7 @@ export async function planPrinters(d: Executor = db()): Promise<PlanPrinter[]> {
       volumetricFlowMm3s: printers.volumetricFlowMm3s,
       perLayerSeconds: printers.perLayerSeconds,
       startupMinutes: printers.startupMinutes,
+      enclosed: printers.enclosed,
       state: printers.state,
       expectedBackAt: printers.expectedBackAt,
     })
@@ -87,6 +90,7 @@ export async function planPrinters(d: Executor = db()): Promise<PlanPrinter[]> {
     const l = loaded.find((s) => s.printerId === r.id);
     return {
       ...r,
+      enclosed: r.enclosed === 1,
       materials: links.filter((x) => x.printerId === r.id).map((x) => x.type),
       loaded: l ? { type: l.type, colour: normColour(l.colour), gramsRemaining: l.grams } : null,
       calibration: cal.get(r.id) ?? NO_CALIBRATION,
@@ -94,7 +98,7 @@ export async function planPrinters(d: Executor = db()): Promise<PlanPrinter[]> {
   });
 }
 
-export const normColour = (c: string) => c.trim().toLowerCase() || "any";
+export { normColour };
 
 /** The material family of a part's free-text material ("PETG" → "petg"); null when unknown. */
 
@@ -167,6 +171,8 @@ export interface QueuedInstance {
   grams: number;
   due: string | null;
   priority: number;
+  /** The part's root assembly id, as the plan's assembly key. */
+  rootAssemblyId: number;
 }
 
 /** The end of the wished day in the workshop's zone, as an instant. */
@@ -190,6 +196,7 @@ export async function loadQueue(d: Executor, all: readonly PlanPrinter[], timezo
       priority: queueEntries.priority,
       wishedDate: queueEntries.wishedDate,
       partName: parts.name,
+      rootAssemblyId: sql<number>`COALESCE(${assemblies.rootId}, ${assemblies.id})`,
       material: parts.material,
       colour: parts.colour,
       layerHeightMm: parts.layerHeightMm,
@@ -239,6 +246,7 @@ export async function loadQueue(d: Executor, all: readonly PlanPrinter[], timezo
       grams: est.grams,
       due: dueInstant(r.wishedDate, timezone),
       priority: r.priority,
+      rootAssemblyId: Number(r.rootAssemblyId),
     });
   }
   return { ready, refused };
@@ -262,6 +270,7 @@ export function toPlanPrinter(p: PlanPrinter, busy: { from: Date; to: Date }[], 
     loaded: p.loaded ? { material: p.loaded.type, color: p.loaded.colour } : undefined,
     // Swapping a spool and purging: common practice, no source.
     changeover_minutes: 10,
+    enclosed: p.enclosed,
   };
 }
 
@@ -275,13 +284,18 @@ export interface PlanningInput {
 
 /** Reads everything a plan needs through one executor (the re-plan's transaction) and validates it with lib/plan's schema. */
 export async function buildPlanningInput(d: Executor, now: Date): Promise<PlanningInput | { error: string }> {
-  const [ws] = await d.select({ timezone: workshopSettings.timezone }).from(workshopSettings).where(eq(workshopSettings.id, 1));
+  const [ws] = await d
+    .select({ timezone: workshopSettings.timezone, allowed: workshopSettings.unattendedAllowed, maxHours: workshopSettings.unattendedMaxHours })
+    .from(workshopSettings)
+    .where(eq(workshopSettings.id, 1));
   const timezone = ws?.timezone ?? "UTC";
   const hours = await d.select({ weekday: attendedHours.weekday, open: attendedHours.opensAt, close: attendedHours.closesAt }).from(attendedHours);
   const all = (await planPrinters(d)).filter((p) => p.materials.length > 0);
   if (!all.length) return { error: "The workshop has no printers with materials set up, so nothing can be planned." };
   const printing = await d.select({ printerId: plates.printerId, startedAt: plates.startedAt, plannedEnd: plates.plannedEnd }).from(plates).where(eq(plates.status, "printing"));
   const { ready, refused } = await loadQueue(d, all, timezone);
+  const stock = await workshopSpools(d);
+  for (const q of ready) q.colour = colourFor(q.type, q.colour, stock);
   const raw: PlanInstanceInput = {
     now: now.toISOString(),
     timezone,
@@ -308,7 +322,10 @@ export async function buildPlanningInput(d: Executor, now: Date): Promise<Planni
       due: q.due,
       priority: q.priority,
       owner: `m${q.memberId}`,
+      assembly: String(q.rootAssemblyId),
     })),
+    unattended: { allowed: (ws?.allowed ?? 1) === 1, max_hours: ws?.maxHours ?? null },
+    spools: [...new Map(stock.map((s) => [`${s.type}/${s.colour}`, { material: s.type, color: s.colour }])).values()],
   };
   const parsed = parsePlanInstance(raw);
   if (!parsed.ok) return { error: `The planning data is not valid: ${parsed.errors.slice(0, 3).join("; ")}` };
@@ -318,6 +335,6 @@ export async function buildPlanningInput(d: Executor, now: Date): Promise<Planni
 /** Used by the send check: the plan printers of lib/plan's part check, from the same source as the plan. */
 export async function planPrinterShapes(d: Executor = db()) {
   const all = (await planPrinters(d)).filter((p) => p.materials.length > 0);
-  return { all, shapes: all.map((p) => ({ id: String(p.id), bed: [p.bedX, p.bedY] as [number, number], height: p.height, materials: p.materials as string[], nozzle: ANY_NOZZLE })) };
+  return { all, shapes: all.map((p) => ({ id: String(p.id), bed: [p.bedX, p.bedY] as [number, number], height: p.height, materials: p.materials as string[], nozzle: ANY_NOZZLE, enclosed: p.enclosed })) };
 }
 

@@ -1,18 +1,19 @@
 import "server-only";
 import { and, eq, inArray, ne, sql } from "drizzle-orm";
 import { db } from "@/db";
-import { assemblies, attendedHours, materials, partInstances, parts, plateItems, plates, printerMaterials, printHistory, printers, spools, statusEvents, workshopSettings, type MaterialType, type PlateStatus } from "@/db/schema";
+import { assemblies, attendedHours, materials, partInstances, parts, plateItems, plates, printHistory, printers, spools, statusEvents, workshopSettings, type MaterialType, type PlateStatus } from "@/db/schema";
 import { createAttendedCalendar } from "@/lib/calendar/attended-hours";
 import { machineCentsExact, materialCentsExact, quoteCost, roundCents, type CostBreakdown } from "@/lib/estimate";
 import { can } from "@/lib/permissions";
-import { UNATTENDED_CAUTION } from "@/lib/plan/plan";
+import { FUMES_CAUTION, UNATTENDED_CAUTION } from "@/lib/plan/plan";
+import { needsEnclosure } from "@/lib/plan/rules";
+import type { SpoolChange } from "@/lib/plan/schema";
 import type { PartStatus } from "@/lib/status";
-import { plateStatusLabel, type PlateCancelInput, type PlateFailInput, type PlateFinishInput, type PlateMoveInput, type PlateStartInput } from "@/lib/validation/plates";
+import { plateStatusLabel, type PlateCancelInput, type PlateFailInput, type PlateFinishInput, type PlateStartInput } from "@/lib/validation/plates";
 import { AppError } from "./errors";
 import { addCharge } from "./ledger";
 import { notify, type Executor, type Tx } from "./mail";
-import { assertSpoolHolds } from "./materials";
-import { BED_MARGIN_MM } from "./planner";
+import { readySpool } from "./spool-change";
 import type { SessionUser } from "./session";
 
 /** The figures kept with a plate when it is planned (refreshed at start): what its members are charged. */
@@ -97,6 +98,16 @@ export async function currentPricing(d: Executor, printerId: number, type: Mater
   };
 }
 
+/** The plan's spool change as the plate's columns (all NULL when the right spool is already on). */
+export function spoolChangeColumns(c: SpoolChange | null) {
+  return {
+    changeFromMaterial: c?.from?.material ?? null,
+    changeFromColour: c?.from?.color ?? null,
+    changeToMaterial: c?.to.material ?? null,
+    changeToColour: c?.to.color ?? null,
+  };
+}
+
 export const plateLabel = (id: number, printerName?: string) => `Plate ${id}${printerName ? ` on ${printerName}` : ""}`;
 
 /** Moves instances along status steps with one history row per step; only rows still in `from` move. */
@@ -123,15 +134,16 @@ interface Locked {
   status: PlateStatus;
   version: number;
   material: string;
+  colour: string;
   estimatedMinutes: number;
   estimatedGrams: number;
   quote: unknown;
 }
 
 /** Locks the plate row; a stale version or a status this action does not take is a 409 naming what happened. */
-async function lockPlate(tx: Tx, id: number, version: number, allowed: PlateStatus[], verb: string): Promise<Locked> {
+export async function lockPlate(tx: Tx, id: number, version: number, allowed: PlateStatus[], verb: string): Promise<Locked> {
   const [p] = await tx
-    .select({ id: plates.id, printerId: plates.printerId, status: plates.status, version: plates.version, material: plates.material, estimatedMinutes: plates.estimatedMinutes, estimatedGrams: plates.estimatedGrams, quote: plates.quote })
+    .select({ id: plates.id, printerId: plates.printerId, status: plates.status, version: plates.version, material: plates.material, colour: plates.colour, estimatedMinutes: plates.estimatedMinutes, estimatedGrams: plates.estimatedGrams, quote: plates.quote })
     .from(plates)
     .where(eq(plates.id, id))
     .for("update");
@@ -144,15 +156,17 @@ async function lockPlate(tx: Tx, id: number, version: number, allowed: PlateStat
 }
 
 /** Whether a run from start to end is still going at the close of the spell it starts in (the planner's rule). */
-async function unattended(d: Executor, start: Date, end: Date): Promise<{ runsUnattended: number; caution: string | null }> {
+export async function unattended(d: Executor, start: Date, end: Date, material?: string): Promise<{ runsUnattended: number; caution: string | null }> {
   const [ws] = await d.select({ tz: workshopSettings.timezone }).from(workshopSettings).where(eq(workshopSettings.id, 1));
   const hours = await d.select({ weekday: attendedHours.weekday, open: attendedHours.opensAt, close: attendedHours.closesAt }).from(attendedHours);
   const closing = createAttendedCalendar(ws?.tz ?? "UTC", hours).closingAfter(start.getTime());
   const late = closing !== null && end.getTime() > closing;
-  return { runsUnattended: late ? 1 : 0, caution: late ? UNATTENDED_CAUTION : null };
+  // The same cautions the plan gives (lib/plan/plan.ts): running past closing, and ABS/ASA fumes.
+  const cautions = [late ? UNATTENDED_CAUTION : null, material && needsEnclosure(material) ? FUMES_CAUTION : null].filter(Boolean);
+  return { runsUnattended: late ? 1 : 0, caution: cautions.length ? cautions.join(" ") : null };
 }
 
-const bump = { version: sql`${plates.version} + 1`, updatedAt: new Date() };
+export const bump = { version: sql`${plates.version} + 1`, updatedAt: new Date() };
 
 async function itemsOf(tx: Tx, plateId: number) {
   return tx
@@ -164,7 +178,7 @@ async function itemsOf(tx: Tx, plateId: number) {
     .where(eq(plateItems.plateId, plateId));
 }
 
-const requireAct = (user: SessionUser) => {
+export const requireAct = (user: SessionUser) => {
   if (!can(user.role, "plates:act")) throw new AppError("forbidden", "Only operators and admins act on plates.");
 };
 
@@ -176,7 +190,8 @@ export async function startPlate(user: SessionUser, id: number, input: PlateStar
     await tx.select({ id: printers.id }).from(printers).where(eq(printers.id, p.printerId)).for("update");
     const [busy] = await tx.select({ id: plates.id }).from(plates).where(and(eq(plates.printerId, p.printerId), eq(plates.status, "printing"), ne(plates.id, id)));
     if (busy) throw new AppError("conflict", `The printer is still printing ${plateLabel(busy.id)}. Finish or fail it first.`);
-    await assertSpoolHolds(p.printerId, p.estimatedGrams, p.material as MaterialType, tx);
+    // The spool change the plate needs, if the operator picked a spool for it, then the spool check (same transaction).
+    await readySpool(tx, p, input.spoolId ?? null);
     const old = p.quote as PlateQuote;
     const price = await currentPricing(tx, p.printerId, p.material as MaterialType);
     const quote = makeQuote(old.items, price.printer, price.material, price.feeCents, price.currency);
@@ -184,7 +199,7 @@ export async function startPlate(user: SessionUser, id: number, input: PlateStar
     const end = new Date(now.getTime() + quote.totalMinutes * 60_000);
     await tx
       .update(plates)
-      .set({ status: "printing", startedAt: now, plannedStart: now, plannedEnd: end, quote, quotedAt: now, estimatedMinutes: quote.totalMinutes, ...(await unattended(tx, now, end)), ...bump })
+      .set({ status: "printing", startedAt: now, plannedStart: now, plannedEnd: end, quote, quotedAt: now, estimatedMinutes: quote.totalMinutes, ...(await unattended(tx, now, end, p.material)), ...bump })
       .where(eq(plates.id, id));
     const items = await itemsOf(tx, id);
     await moveInstances(tx, items.map((i) => i.instanceId), "plated", ["printing"], user.id, `Started on ${plateLabel(id)}`);
@@ -232,12 +247,32 @@ export async function finishPlate(user: SessionUser, id: number, input: PlateFin
   });
 }
 
+/**
+ * Grams a failed run used when the operator did not weigh it: the plate's estimate times the share
+ * of its estimated minutes that had passed since the start (a plate fails part-way; at most all of it).
+ */
+export function failedGrams(estimatedGrams: number, estimatedMinutes: number, startedAt: Date | null, endedAt: Date): number {
+  if (!startedAt || estimatedMinutes <= 0) return 0;
+  const share = Math.min(1, Math.max(0, (endedAt.getTime() - startedAt.getTime()) / 60_000 / estimatedMinutes));
+  return Math.round(estimatedGrams * share * 10) / 10;
+}
+
+async function failedRunGrams(tx: Tx, id: number, p: Locked, now: Date): Promise<number> {
+  const [row] = await tx.select({ startedAt: plates.startedAt }).from(plates).where(eq(plates.id, id));
+  return failedGrams(p.estimatedGrams, p.estimatedMinutes, row?.startedAt ?? null, now);
+}
+
 /** A failed plate: its parts go back to the queue with one more reprint counted; members are told. */
 export async function failPlate(user: SessionUser, id: number, input: PlateFailInput): Promise<{ version: number }> {
   requireAct(user);
   return db().transaction(async (tx) => {
     const p = await lockPlate(tx, id, input.version, ["printing"], "be marked failed");
-    await tx.update(plates).set({ status: "failed", endedAt: new Date(), reason: input.reason, ...bump }).where(eq(plates.id, id));
+    const now = new Date();
+    const used = input.usedGrams ?? (await failedRunGrams(tx, id, p, now));
+    await tx.update(plates).set({ status: "failed", endedAt: now, reason: input.reason, actualGrams: used, ...bump }).where(eq(plates.id, id));
+    // The filament the failed run used came off the spool that fed it.
+    const [spool] = await tx.select({ id: spools.id, grams: spools.gramsRemaining }).from(spools).where(eq(spools.loadedPrinterId, p.printerId)).for("update");
+    if (spool && used > 0) await tx.update(spools).set({ gramsRemaining: Math.max(0, spool.grams - used), version: sql`${spools.version} + 1`, updatedAt: now }).where(eq(spools.id, spool.id));
     await tx.update(plateItems).set({ activeInstanceId: null }).where(eq(plateItems.plateId, id));
     const items = await itemsOf(tx, id);
     await moveInstances(tx, items.map((i) => i.instanceId), "printing", ["failed", "queued"], user.id, `${plateLabel(id)} failed: ${input.reason}`, true);
@@ -260,36 +295,3 @@ export async function cancelPlate(user: SessionUser, id: number, input: PlateCan
     return { version: p.version + 1 };
   });
 }
-
-/** Move a planned plate to another printer that takes its material and holds its layout; it goes after that printer's last plate. */
-export async function movePlate(user: SessionUser, id: number, input: PlateMoveInput): Promise<{ version: number }> {
-  requireAct(user);
-  return db().transaction(async (tx) => {
-    const p = await lockPlate(tx, id, input.version, ["planned"], "be moved");
-    if (p.printerId === input.printerId) throw new AppError("invalid", "The plate is on that printer already.", { printerId: ["Pick another printer."] });
-    const [t] = await tx.select({ id: printers.id, name: printers.name, bedX: printers.bedXMm, bedY: printers.bedYMm, height: printers.heightMm }).from(printers).where(eq(printers.id, input.printerId)).for("update");
-    if (!t) throw new AppError("invalid", "Pick a printer that exists.", { printerId: ["There is no such printer."] });
-    const [takes] = await tx.select({ t: printerMaterials.materialType }).from(printerMaterials).where(and(eq(printerMaterials.printerId, t.id), eq(printerMaterials.materialType, p.material as MaterialType)));
-    if (!takes) throw new AppError("invalid", `${t.name} does not print ${p.material.toUpperCase()}.`, { printerId: [`${t.name} does not take this material.`] });
-    const its = await tx.select({ x: plateItems.x, y: plateItems.y, rotated: plateItems.rotated, sx: plateItems.sizeX, sy: plateItems.sizeY, sz: plateItems.sizeZ }).from(plateItems).where(eq(plateItems.plateId, id));
-    const maxX = Math.max(...its.map((i) => i.x + (i.rotated ? i.sy : i.sx)));
-    const maxY = Math.max(...its.map((i) => i.y + (i.rotated ? i.sx : i.sy)));
-    const maxZ = Math.max(...its.map((i) => i.sz));
-    if (maxX + BED_MARGIN_MM > t.bedX + 1e-6 || maxY + BED_MARGIN_MM > t.bedY + 1e-6 || maxZ > t.height + 1e-6) {
-      throw new AppError("invalid", `This plate's layout does not fit ${t.name}'s ${t.bedX} × ${t.bedY} × ${t.height} mm build volume. Re-plan instead.`, { printerId: ["The layout does not fit this printer."] });
-    }
-    const [last] = await tx.select({ end: sql<Date | null>`MAX(${plates.plannedEnd})` }).from(plates).where(and(eq(plates.printerId, t.id), inArray(plates.status, ["planned", "printing"])));
-    const lastEnd = last?.end ? new Date(last.end).getTime() : 0;
-    const old = p.quote as PlateQuote;
-    const price = await currentPricing(tx, t.id, p.material as MaterialType);
-    const quote = makeQuote(old.items, price.printer, price.material, price.feeCents, price.currency);
-    const start = new Date(Math.max(Date.now(), lastEnd));
-    const end = new Date(start.getTime() + quote.totalMinutes * 60_000);
-    await tx
-      .update(plates)
-      .set({ printerId: t.id, plannedStart: start, plannedEnd: end, quote, quotedAt: new Date(), estimatedMinutes: quote.totalMinutes, ...(await unattended(tx, start, end)), ...bump })
-      .where(eq(plates.id, id));
-    return { version: p.version + 1 };
-  });
-}
-

@@ -4,6 +4,7 @@ import { db } from "@/db";
 import { assemblies, materials, partFiles, partInstances, parts, plannerState, plateItems, plates, printers, queueEntries, spools, users } from "@/db/schema";
 import { MATERIALS } from "@/lib/estimate";
 import { can } from "@/lib/permissions";
+import { housingAllows, needsEnclosure } from "@/lib/plan/rules";
 import { fitVerdict } from "@/lib/rules/fit";
 import { meshSendCheck, type HealthFigures } from "@/lib/rules/mesh-health";
 import { planWorkshop } from "@/lib/plan/plan";
@@ -14,7 +15,8 @@ import { SPOOL_MARGIN } from "./materials";
 import { partAccess, requirePartEdit } from "./parts";
 import { effectiveGeometry, isSplit, jsonOf } from "./orientation";
 import { buildPlanningInput, densities, densityOf, estimateInstance, instanceGeometry, materialKeyOf, planPrinterShapes, timingPrinter, type PartForEstimate } from "./planner";
-import { currentPricing, makeQuote, moveInstances, plateLabel } from "./plates";
+import { currentPricing, makeQuote, moveInstances, plateLabel, spoolChangeColumns } from "./plates";
+import { normColour, workshopSpools } from "./spool-stock";
 import type { SessionUser } from "./session";
 
 const invalid = (message: string, field: string) => new AppError("invalid", message, { [field]: [message] });
@@ -24,12 +26,12 @@ const invalid = (message: string, field: string) => new AppError("invalid", mess
  * has a mesh, some printer takes its material and holds its footprint and height, and a spool of
  * that material holds at least one copy with spare. Copies not yet in the workshop go first, ready before drafted.
  */
-export async function sendToQueue(user: SessionUser, input: QueueSendInput): Promise<{ queued: number; instanceIds: number[]; printers: string[]; gramsEach: number; minutesEach: number }> {
+export async function sendToQueue(user: SessionUser, input: QueueSendInput): Promise<{ queued: number; instanceIds: number[]; printers: string[]; gramsEach: number; minutesEach: number; waitingFor: string | null }> {
   if (!can(user.role, "queue:send")) throw new AppError("forbidden", "Members send their parts to the workshop; the workshop plans them.");
   await requirePartEdit(user, input.partId);
   if (input.priority > MEMBER_MAX_PRIORITY) throw invalid("Members may ask for normal or soon; the workshop sets rush priorities.", "priority");
   const [part] = await db()
-    .select({ name: parts.name, material: parts.material, layerHeightMm: parts.layerHeightMm, walls: parts.walls, infillPercent: parts.infillPercent, ownerId: assemblies.ownerId, fileId: partFiles.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, analysis: partFiles.analysis, acceptedBrokenBy: partFiles.acceptedBrokenBy })
+    .select({ name: parts.name, material: parts.material, colour: parts.colour, layerHeightMm: parts.layerHeightMm, walls: parts.walls, infillPercent: parts.infillPercent, ownerId: assemblies.ownerId, fileId: partFiles.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, analysis: partFiles.analysis, acceptedBrokenBy: partFiles.acceptedBrokenBy })
     .from(parts)
     .innerJoin(assemblies, eq(assemblies.id, parts.assemblyId))
     .leftJoin(partFiles, eq(partFiles.id, parts.currentFileId))
@@ -44,8 +46,13 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
   // The member's chosen orientation for the current file decides how the part lies on the bed.
   const geo = instanceGeometry({ sizeX: part.sizeX, sizeY: part.sizeY, sizeZ: part.sizeZ }, await effectiveGeometry(input.partId));
   const { all, shapes } = await planPrinterShapes();
-  // The workshop's one fit rule (lib/rules/fit), the same the part page, quote and orientation panel ask.
-  const check = fitVerdict(geo, shapes, type, part.material);
+  const takers = type ? shapes.filter((p) => p.materials.includes(type)) : [];
+  if (type && needsEnclosure(type) && takers.length && !takers.some((p) => housingAllows(p, type))) {
+    throw invalid(`${MATERIALS[type].name} gives off fumes and warps in drafts: it is printed only on an enclosed printer, and no printer here that takes it is marked enclosed.`, "partId");
+  }
+  // The workshop's one fit rule (lib/rules/fit), the same the part page, quote and orientation panel ask,
+  // on the printers whose housing allows the material.
+  const check = fitVerdict(geo, type ? shapes.filter((p) => housingAllows(p, type)) : shapes, type, part.material);
   if (!check.ok) {
     const hint = type ? "" : ` (it prints ${Object.values(MATERIALS).map((m) => m.name).join(", ")})`;
     throw invalid(`No printer here can take this part: ${check.reason}${hint}.`, "partId");
@@ -56,6 +63,11 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
   const [stock] = await db().select({ grams: sql<number | null>`MAX(${spools.gramsRemaining})` }).from(spools).innerJoin(materials, eq(materials.id, spools.materialId)).where(eq(materials.type, type));
   const need = est.grams * SPOOL_MARGIN;
   if (Number(stock?.grams ?? 0) < need) throw invalid(`The workshop has no ${MATERIALS[type].name} spool holding the ${Math.ceil(need)} g one copy needs. Ask the workshop to stock it.`, "partId");
+  // A missing colour is a matter of stock, not of the part: the copies are accepted and wait in the
+  // queue with that reason until a spool of the colour is stocked (the plan says so); the member is told now.
+  const colour = normColour(part.colour);
+  const colourStocked = colour === "any" || (await workshopSpools()).some((s) => s.type === type && s.colour === colour);
+  const waitingFor = colourStocked ? null : `The workshop has no ${MATERIALS[type].name} ${part.colour.trim()} spool yet: the copies wait in the queue until one is stocked.`;
   const ids = await db().transaction(async (tx) => {
     const free = await tx
       .select({ id: partInstances.id, status: partInstances.status })
@@ -73,7 +85,7 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
     await tx.insert(queueEntries).values(rows).onDuplicateKeyUpdate({ set: { wishedDate: input.wishedDate, priority: input.priority, sentBy: user.id, sentAt: new Date(), version: sql`${queueEntries.version} + 1` } });
     return take.map((t) => t.id);
   });
-  return { queued: ids.length, instanceIds: ids, printers: able.map((p) => p.name), gramsEach: est.grams, minutesEach: est.minutes };
+  return { queued: ids.length, instanceIds: ids, printers: able.map((p) => p.name), gramsEach: est.grams, minutesEach: est.minutes, waitingFor };
 }
 
 interface Unplaced {
@@ -164,7 +176,7 @@ async function replanNow(user: SessionUser, now: Date): Promise<ReplanResult> {
       const quote = makeQuote(its.map(({ q }) => ({ instanceId: q.instanceId, memberId: q.memberId, grams: q.grams, minutes: q.minutes })), price.printer, price.material, price.feeCents, price.currency);
       const [res] = await tx
         .insert(plates)
-        .values({ printerId, material: plate.material, colour: plate.color, plannedStart: new Date(plate.start), plannedEnd: new Date(plate.end), runsUnattended: plate.runs_unattended ? 1 : 0, caution: plate.caution, estimatedMinutes: quote.totalMinutes, estimatedGrams: quote.totalGrams, quote, quotedAt: now })
+        .values({ printerId, material: plate.material, colour: plate.color, plannedStart: new Date(plate.start), plannedEnd: new Date(plate.end), runsUnattended: plate.runs_unattended ? 1 : 0, caution: plate.caution, ...spoolChangeColumns(plate.spool_change), estimatedMinutes: quote.totalMinutes, estimatedGrams: quote.totalGrams, quote, quotedAt: now })
         .$returningId();
       const plateId = res!.id;
       await tx.insert(plateItems).values(its.map(({ it, q }) => ({ plateId, instanceId: q.instanceId, activeInstanceId: q.instanceId, memberId: q.memberId, x: it.x, y: it.y, rotated: it.rotated ? 1 : 0, sizeX: q.sizeX, sizeY: q.sizeY, sizeZ: q.sizeZ, minutes: q.minutes, grams: q.grams })));

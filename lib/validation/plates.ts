@@ -16,7 +16,15 @@ const version = z.coerce.number({ error: "The plate's version is missing." }).in
 
 // Every plate action carries the version the operator saw: a second operator acting on the same
 // plate gets a conflict instead of a silent double action.
-export const plateStartInput = z.strictObject({ version });
+// Start may carry the spool the operator picked for the plate's spool change: the server loads it
+// (the old one back on the shelf) and starts, in one transaction. Empty = the spool already on.
+export const plateStartInput = z.strictObject({
+  version,
+  spoolId: z
+    .union([z.literal(""), z.null(), z.coerce.number({ error: "Pick a spool." }).int().positive("Pick a spool.")])
+    .optional()
+    .transform((v) => (v === "" || v === undefined ? null : v)),
+});
 
 export const plateFinishInput = z.strictObject({
   version,
@@ -31,6 +39,11 @@ export const plateFinishInput = z.strictObject({
 export const plateFailInput = z.strictObject({
   version,
   reason: z.string().trim().min(3, "Say what went wrong (at least 3 characters).").max(500, "At most 500 characters."),
+  /** Filament the failed run used, grams, when weighed; empty = estimated from the share of the run done. */
+  usedGrams: z
+    .union([z.literal(""), z.null(), z.coerce.number({ error: "Enter grams as a number." }).min(0, "Not below 0 g.").max(100_000, "At most 100000 g.")])
+    .optional()
+    .transform((v) => (v === "" || v === undefined ? null : v)),
 });
 
 export const plateCancelInput = z.strictObject({
@@ -43,9 +56,10 @@ export const plateMoveInput = z.strictObject({
   printerId: z.coerce.number({ error: "Pick a printer." }).int().positive("Pick a printer."),
 });
 
-export type PlateStartInput = z.infer<typeof plateStartInput>;
+/** What startPlate takes (callers inside the server may leave the spool out). */
+export type PlateStartInput = Omit<z.infer<typeof plateStartInput>, "spoolId"> & { spoolId?: number | null };
 export type PlateFinishInput = z.infer<typeof plateFinishInput>;
-export type PlateFailInput = z.infer<typeof plateFailInput>;
+export type PlateFailInput = Omit<z.infer<typeof plateFailInput>, "usedGrams"> & { usedGrams?: number | null };
 export type PlateCancelInput = z.infer<typeof plateCancelInput>;
 export type PlateMoveInput = z.infer<typeof plateMoveInput>;
 

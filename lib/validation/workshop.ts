@@ -24,6 +24,12 @@ export const workshopSettingsInput = z.strictObject({
   defaultInfillPercent: z.coerce.number().int("A whole number.").min(0).max(100, "At most 100 %."),
   plateFeeCents: z.coerce.number().int("A whole number of cents.").min(0).max(1_000_000),
   safetyNote: z.string().trim().max(1000),
+  // The unattended-printing policy (absent = unchanged, so older clients keep working).
+  unattendedAllowed: z.boolean({ error: "Say whether plates may run unattended." }).optional(),
+  unattendedMaxHours: z
+    .union([z.literal(""), z.null(), z.coerce.number({ error: "Enter hours as a number, or leave it empty for no cap." }).positive("More than 0 hours, or leave it empty for no cap.").max(168, "At most 168 hours (a week).")])
+    .optional()
+    .transform((v) => (v === "" ? null : v)),
   version: z.coerce.number().int().positive(),
 });
 

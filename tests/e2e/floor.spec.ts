@@ -13,13 +13,14 @@ async function partPage(page: Page, name: string) {
 
 /** Clears the plate's printer: finishes whatever it is printing and loads a spool of the plate's family. */
 async function readyPrinter(api: APIRequestContext, plateId: number) {
-  const plate = (await (await api.get(`/api/plates/${plateId}`)).json()) as { plate: { printerId: number; material: string } };
+  const plate = (await (await api.get(`/api/plates/${plateId}`)).json()) as { plate: { printerId: number; material: string; colour: string } };
   const board = (await (await api.get("/api/queue/board")).json()) as { lanes: { id: number; plates: { id: number; status: string; version: number }[] }[] };
   for (const p of board.lanes.find((l) => l.id === plate.plate.printerId)?.plates ?? []) {
     if (p.status === "printing") await api.post(`/api/plates/${p.id}/finish`, { data: { version: p.version, actualMinutes: 30, shelfLabel: "Shelf Z9" } });
   }
-  const mats = (await (await api.get("/api/materials")).json()) as { type: string; spools: { id: number; gramsRemaining: number }[] }[];
-  const spool = mats.filter((m) => m.type === plate.plate.material).flatMap((m) => m.spools).sort((a, b) => b.gramsRemaining - a.gramsRemaining)[0];
+  const mats = (await (await api.get("/api/materials")).json()) as { type: string; spools: { id: number; gramsRemaining: number; colour: string }[] }[];
+  // The plate's colour too: Start checks both.
+  const spool = mats.filter((m) => m.type === plate.plate.material).flatMap((m) => m.spools).filter((x) => x.colour.toLowerCase() === plate.plate.colour).sort((a, b) => b.gramsRemaining - a.gramsRemaining)[0];
   if (spool) await api.put(`/api/spools/${spool.id}/load`, { data: { printerId: plate.plate.printerId } });
 }
 

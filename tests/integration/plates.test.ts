@@ -180,8 +180,8 @@ describe("plate actions", () => {
   });
 
   it("a failed plate puts its parts back in the queue with the reprint counted", async () => {
-    // Fresh copies, so this test does not depend on how earlier tests' plates were cut.
-    await send(member, await boxPart(member, "Fail bracket", 30, 30, 10, 2), 2);
+    // The earlier tests may have printed every queued copy on one plate: send fresh ones.
+    await send(member, await boxPart(member, "Fail clip", 20, 10, 8, 2), 2);
     await replan(operator);
     const [p] = await livePlates();
     const started = await startPlate(operator, p!.id, { version: p!.version });

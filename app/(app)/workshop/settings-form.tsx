@@ -49,7 +49,11 @@ export function SettingsForm({ initial }: { initial: Saved }) {
   return (
     <form onSubmit={onSubmit} noValidate className="flex max-w-2xl flex-col gap-5">
       {save.isError ? <Notice tone="fail" title={save.error.message} /> : null}
-      {save.isSuccess ? <Notice tone="ok" title="Settings saved." /> : null}
+      {save.isSuccess ? (
+        <Notice tone="ok" title="Settings saved.">
+          {values.unattendedAllowed === false ? "Plates must now end by closing time." : `Plates may run unattended${values.unattendedMaxHours ? ` for up to ${values.unattendedMaxHours} h past closing` : ", with no cap"}.`} Re-plan on the Floor to apply it to plates not yet started.
+        </Notice>
+      ) : null}
       <div className="grid gap-5 sm:grid-cols-2">
         {fields.map((f) => (
           <Field key={f.name} label={f.label} name={f.name} errors={fieldErrors[f.name]} hint={f.hint}>
@@ -75,6 +79,40 @@ export function SettingsForm({ initial }: { initial: Saved }) {
           className="rounded-md border border-rule bg-sheet px-3 py-2 text-sm"
         />
       </Field>
+      <fieldset className="flex flex-col gap-3 rounded-md border border-rule p-3">
+        <legend className="px-1 text-sm font-semibold">Unattended printing</legend>
+        <Notice tone="warn" title="Unattended and overnight printing is a fire risk">
+          Printers are hot and move. Allow plates to run while nobody is there only where the workshop&apos;s own rules and local codes permit it
+          (smoke detection, a clear area around the printer, someone who can be called).
+        </Notice>
+        <label className="flex items-center gap-2 text-sm">
+          <input
+            type="checkbox"
+            name="unattendedAllowed"
+            checked={values.unattendedAllowed !== false}
+            onChange={(e) => setValues((v) => ({ ...v, unattendedAllowed: e.target.checked }))}
+          />
+          Plates may run past closing (nights and weekends)
+        </label>
+        <Field
+          label="Longest unattended run (hours)"
+          name="unattendedMaxHours"
+          errors={fieldErrors.unattendedMaxHours}
+          hint="How long a plate may keep printing after closing. Leave empty for no cap. Ignored when plates must end by closing."
+        >
+          <TextInput
+            id="unattendedMaxHours"
+            name="unattendedMaxHours"
+            type="number"
+            step="0.5"
+            min={0.5}
+            disabled={values.unattendedAllowed === false}
+            value={values.unattendedMaxHours === null || values.unattendedMaxHours === undefined ? "" : String(values.unattendedMaxHours)}
+            invalid={!!fieldErrors.unattendedMaxHours}
+            onChange={(e) => setValues((v) => ({ ...v, unattendedMaxHours: e.target.value }))}
+          />
+        </Field>
+      </fieldset>
       <div className="flex items-center gap-3">
         <Button type="submit" disabled={save.isPending}>
           {save.isPending ? "Saving…" : "Save settings"}

@@ -1,8 +1,10 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { AssemblyView } from "@/components/bench/assembly-view";
+import { CompletionNote } from "@/components/bench/completion-note";
 import { AssemblyQuotePanel } from "@/components/quote/assembly-quote-panel";
 import type { AssemblyDetailWire } from "@/lib/queries/assemblies";
+import { assemblyCompletion } from "@/lib/server/assembly-completion";
 import { AppError } from "@/lib/server/errors";
 import { getAssemblyDetail } from "@/lib/server/parts";
 import { requirePageUser } from "@/lib/server/session";
@@ -22,11 +24,11 @@ export default async function AssemblyPage({ params }: { params: Promise<{ id: s
     if (e instanceof AppError && e.code === "not_found") notFound();
     throw e;
   }
-  const w = await getWorkshopSettings();
+  const [w, completion] = await Promise.all([getWorkshopSettings(), assemblyCompletion(user, id)]);
   const defaults = `Empty fields take the workshop's defaults: ${w.defaultLayerHeightMm} mm layers, ${w.defaultWalls} walls, ${w.defaultInfillPercent} % infill.`;
   return (
     <>
-      <AssemblyView id={id} initial={JSON.parse(JSON.stringify(detail)) as AssemblyDetailWire} defaults={defaults} />
+      <AssemblyView id={id} initial={JSON.parse(JSON.stringify(detail)) as AssemblyDetailWire} defaults={defaults} completion={<CompletionNote c={completion} timezone={w.timezone} />} />
       <AssemblyQuotePanel assemblyId={id} />
     </>
   );

@@ -1,7 +1,8 @@
 // POST /api/plates/[id]/(start|finish|fail|cancel|move): act on a plate (operators, admins); a stale version answers 409.
 import { NextResponse } from "next/server";
 import { AppError, errorResponse, readJson } from "@/lib/server/errors";
-import { cancelPlate, failPlate, finishPlate, movePlate, startPlate } from "@/lib/server/plates";
+import { movePlate } from "@/lib/server/plate-move";
+import { cancelPlate, failPlate, finishPlate, startPlate } from "@/lib/server/plates";
 import { parseId } from "@/lib/server/printers";
 import { requireUser } from "@/lib/server/session";
 import { plateCancelInput, plateFailInput, plateFinishInput, plateMoveInput, plateStartInput } from "@/lib/validation/plates";
