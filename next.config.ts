@@ -6,9 +6,9 @@ const dev = process.env.NODE_ENV !== "production";
 // app needs: the mesh web worker (served from our origin, or a blob: in dev), WebAssembly
 // (manifold-3d: 'wasm-unsafe-eval'), the WebGL viewer (no extra source needed), and Next's inline
 // bootstrap scripts ('unsafe-inline'; dev adds eval and the HMR socket).
-const csp = [
+const policy = (evalInScripts: boolean) => [
   "default-src 'self'",
-  `script-src 'self' 'unsafe-inline' 'wasm-unsafe-eval'${dev ? " 'unsafe-eval'" : ""}`,
+  `script-src 'self' 'unsafe-inline' 'wasm-unsafe-eval'${dev || evalInScripts ? " 'unsafe-eval'" : ""}`,
   "style-src 'self' 'unsafe-inline'",
   "img-src 'self' data: blob:",
   "font-src 'self'",
@@ -19,6 +19,11 @@ const csp = [
   "form-action 'self'",
   "frame-ancestors 'none'",
 ].join("; ");
+const csp = policy(false);
+// A dedicated worker runs under the policy sent with its own script. The STEP tessellator's bindings
+// (occt-import-js, built with embind) compile small glue functions with `new Function`, so the
+// worker entry scripts, and only they, may evaluate strings: no page and no DOM is reachable there.
+const workerCsp = policy(true);
 
 const securityHeaders = [
   { key: "Content-Security-Policy", value: csp },
@@ -40,7 +45,10 @@ const nextConfig: NextConfig = {
   // `npm test` type-checks the whole tree as its own step (tsc --noEmit); the build need not repeat it.
   typescript: { ignoreBuildErrors: true },
   async headers() {
-    return [{ source: "/:path*", headers: securityHeaders }];
+    return [
+      { source: "/:path*", headers: securityHeaders },
+      { source: "/_next/static/chunks/:file(turbopack-worker-[^/]+\\.js)", headers: [{ key: "Content-Security-Policy", value: workerCsp }] },
+    ];
   },
 };
 

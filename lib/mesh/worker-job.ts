@@ -34,7 +34,12 @@ export async function runAnalyzeJob(bytes: Uint8Array, options: AnalyzeOptions, 
   if (isStep(bytes)) {
     if (!hooks.loadStep) throw new MeshReadError("NEEDS_STEP_READER", "STEP files cannot be read here");
     hooks.progress("tessellate", 0);
-    const occt = await hooks.loadStep();
+    let occt: OcctModule;
+    try {
+      occt = await hooks.loadStep();
+    } catch (e) {
+      throw new MeshReadError("NEEDS_STEP_READER", `the STEP reader could not be loaded (${e instanceof Error ? e.message.slice(0, 160) : String(e).slice(0, 160)})`);
+    }
     await check();
     read = readStepWith(occt, bytes);
     hooks.progress("tessellate", 1);
