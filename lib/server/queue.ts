@@ -52,7 +52,7 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
   }
   // The workshop's one fit rule (lib/rules/fit), the same the part page, quote and orientation panel ask,
   // on the printers whose housing allows the material.
-  const check = fitVerdict(geo, type ? shapes.filter((p) => housingAllows(p, type)) : shapes, type, part.material);
+  const check = fitVerdict(geo, type && takers.length ? shapes.filter((p) => housingAllows(p, type)) : shapes, type, part.material);
   if (!check.ok) {
     const hint = type ? "" : ` (it prints ${Object.values(MATERIALS).map((m) => m.name).join(", ")})`;
     throw invalid(`No printer here can take this part: ${check.reason}${hint}.`, "partId");

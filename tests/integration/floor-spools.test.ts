@@ -47,7 +47,7 @@ async function boxPart(assemblyId: number, name: string, [w, d, h]: [number, num
   const [p] = await db().insert(parts).values({ assemblyId, name, quantity: qty, material, colour, layerHeightMm: 0.2, walls: 2, infillPercent: 15 }).$returningId();
   const sha = (name.replace(/[^a-f]/gi, "").toLowerCase() + "0".repeat(64)).slice(0, 64);
   await db().insert(meshBlobs).ignore().values({ sha256: sha, sizeBytes: 84 });
-  const analysis = { size: [w, d, h], volume_mm3: w * d * h, area_mm2: 2 * (w * d + w * h + d * h), footprint_area_mm2: w * d };
+  const analysis = { size: [w, d, h], watertight: true, volume_reliable: true, volume_mm3: w * d * h, area_mm2: 2 * (w * d + w * h + d * h), footprint_area_mm2: w * d };
   const [f] = await db().insert(partFiles).values({ partId: p!.id, sha256: sha, versionNo: 1, originalName: `${name}.stl`, units: "mm", format: "stl-binary", sizeX: w, sizeY: d, sizeZ: h, volumeMm3: w * d * h, watertight: 1, analysis, uploadedBy: member.id }).$returningId();
   await db().update(parts).set({ currentFileId: f!.id }).where(eq(parts.id, p!.id));
   for (let c = 1; c <= qty; c++) await db().insert(partInstances).values({ partId: p!.id, copyNo: c, status: "ready" });

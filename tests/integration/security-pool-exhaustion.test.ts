@@ -39,7 +39,7 @@ beforeAll(async () => {
   const [p] = await db().insert(parts).values({ assemblyId: a!.id, name: "Pool tab", quantity: 6, material: "PLA", colour: "grey", layerHeightMm: 0.2, walls: 2, infillPercent: 15 }).$returningId();
   const sha = "b".repeat(64);
   await db().insert(meshBlobs).ignore().values({ sha256: sha, sizeBytes: 84 });
-  const analysis = { size: [30, 20, 5], volume_mm3: 3000, area_mm2: 2 * (600 + 150 + 100), footprint_area_mm2: 600 };
+  const analysis = { size: [30, 20, 5], watertight: true, volume_reliable: true, volume_mm3: 3000, area_mm2: 2 * (600 + 150 + 100), footprint_area_mm2: 600 };
   const [f] = await db().insert(partFiles).values({ partId: p!.id, sha256: sha, versionNo: 1, originalName: "tab.stl", units: "mm", format: "stl-binary", sizeX: 30, sizeY: 20, sizeZ: 5, volumeMm3: 3000, watertight: 1, analysis, uploadedBy: member.id }).$returningId();
   await db().update(parts).set({ currentFileId: f!.id }).where(eq(parts.id, p!.id));
   for (let c = 1; c <= 6; c++) await db().insert(partInstances).values({ partId: p!.id, copyNo: c, status: "ready" });
