@@ -94,6 +94,8 @@ function QuoteTable({ quote }: { quote: Quote }) {
       )}
       <p className="text-xs text-ink-soft">
         {quote.material.name} at {m(quote.material.pricePerKgCents)} per kg, {quote.material.densityGcm3} g/cm³ ({quote.material.densitySource}).
+        {" "}The fee is the whole plate&apos;s: it is split evenly between the members whose parts share the plate, so your share is at most this.
+        {input.supports ? " Grams and time include the support the chosen orientation needs." : ""}
       </p>
       <div className="overflow-x-auto">
         <table className="w-full text-sm">
