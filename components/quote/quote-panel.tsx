@@ -67,7 +67,7 @@ export function QuotePanel({ input, title = "Quote" }: { input: QuotePanelInput;
           {q.error.message}
         </Notice>
       ) : (
-        <QuoteTable quote={q.data} />
+        <QuoteTable quote={q.data} withSupport={!!input.supports} />
       )}
       {cautions.length ? (
         <div className="mt-3">
@@ -80,7 +80,7 @@ export function QuotePanel({ input, title = "Quote" }: { input: QuotePanelInput;
   );
 }
 
-function QuoteTable({ quote }: { quote: Quote }) {
+function QuoteTable({ quote, withSupport }: { quote: Quote; withSupport: boolean }) {
   const m = (c: number) => money(c, quote.currency);
   const best = quote.options.find((o) => o.fits);
   return (
@@ -94,6 +94,8 @@ function QuoteTable({ quote }: { quote: Quote }) {
       )}
       <p className="text-xs text-ink-soft">
         {quote.material.name} at {m(quote.material.pricePerKgCents)} per kg, {quote.material.densityGcm3} g/cm³ ({quote.material.densitySource}).
+        {" "}The fee is the whole plate&apos;s: it is split evenly between the members whose parts share the plate, so your share is at most this.
+        {withSupport ? " Grams and time include the support the chosen orientation needs." : ""}
       </p>
       <div className="overflow-x-auto">
         <table className="w-full text-sm">

@@ -12,6 +12,7 @@
  * each other) it reports, so the caller can say so. Plain maps and arrays: a repair is an explicit
  * action on one part, not the upload's hot path.
  */
+import { MAX_NESTING_PIECES, rayCrossings } from "./shells";
 import { weld } from "./weld";
 import type { IndexedMesh, TriangleSoup } from "./types";
 
@@ -209,46 +210,18 @@ export function repairMesh(soup: TriangleSoup, opts: RepairOptions = {}): { soup
   return { soup: { positions }, mesh: { vertices: v, indices }, report };
 }
 
-/** Pieces beyond this many are not checked for nesting (each check casts a ray through every other piece). */
-const MAX_NESTING_PIECES = 64;
-
-/** For each piece, how many other pieces contain its first corner (ray parity). */
+/** For each piece, how many other pieces contain its first corner (ray parity, lib/mesh/shells). */
 function insideCounts(v: Float32Array, tris: Uint32Array[], pieces: number[][]): number[] {
   const out = pieces.map(() => 0);
   if (pieces.length < 2 || pieces.length > MAX_NESTING_PIECES) return out;
+  const flat = new Uint32Array(tris.length * 3);
+  tris.forEach((t, f) => flat.set(t, 3 * f));
   pieces.forEach((p, i) => {
     const c = tris[p[0]!]![0]! * 3;
-    const o: [number, number, number] = [v[c]!, v[c + 1]!, v[c + 2]!];
+    const o = [v[c]!, v[c + 1]!, v[c + 2]!] as const;
     pieces.forEach((q, j) => {
-      if (i !== j && crossings(v, tris, q, o) % 2 === 1) out[i]!++;
+      if (i !== j && rayCrossings(v, flat, q, o) % 2 === 1) out[i]!++;
     });
   });
   return out;
-}
-
-// A ray direction unlikely to run exactly along an edge or through a vertex of a drawn part.
-const RAY: [number, number, number] = [0.8017837257372732, 0.5345224838248488, 0.2672612419124244];
-
-/** Faces of a piece the ray from o crosses (Möller and Trumbore, "Fast, minimum storage ray/triangle intersection", 1997). */
-function crossings(v: Float32Array, tris: Uint32Array[], faces: number[], o: [number, number, number]): number {
-  let n = 0;
-  const [dx, dy, dz] = RAY;
-  for (const f of faces) {
-    const t = tris[f]!;
-    const a = 3 * t[0]!, b = 3 * t[1]!, c = 3 * t[2]!;
-    const e1x = v[b]! - v[a]!, e1y = v[b + 1]! - v[a + 1]!, e1z = v[b + 2]! - v[a + 2]!;
-    const e2x = v[c]! - v[a]!, e2y = v[c + 1]! - v[a + 1]!, e2z = v[c + 2]! - v[a + 2]!;
-    const px = dy * e2z - dz * e2y, py = dz * e2x - dx * e2z, pz = dx * e2y - dy * e2x;
-    const det = e1x * px + e1y * py + e1z * pz;
-    if (Math.abs(det) < 1e-12) continue;
-    const inv = 1 / det;
-    const sx = o[0] - v[a]!, sy = o[1] - v[a + 1]!, sz = o[2] - v[a + 2]!;
-    const u = (sx * px + sy * py + sz * pz) * inv;
-    if (u < 0 || u > 1) continue;
-    const qx = sy * e1z - sz * e1y, qy = sz * e1x - sx * e1z, qz = sx * e1y - sy * e1x;
-    const w = (dx * qx + dy * qy + dz * qz) * inv;
-    if (w < 0 || u + w > 1) continue;
-    if ((e2x * qx + e2y * qy + e2z * qz) * inv > 1e-9) n++;
-  }
-  return n;
 }

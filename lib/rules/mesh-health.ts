@@ -47,11 +47,14 @@ export function meshIsSound(a: HealthFigures): boolean {
 
 export type SendCheck = { ok: true; accepted: boolean } | { ok: false; reason: string };
 
-/** May a part with this mesh be sent? `acceptedBy` names the operator who accepted a broken mesh, if one did. */
-export function meshSendCheck(a: HealthFigures | null, acceptedBy: string | null): SendCheck {
+/**
+ * May a part with this mesh be sent? `acceptedBy` names the operator who accepted a broken mesh, if
+ * one did; `piecesInside` counts solid pieces inside another (their volume counts twice).
+ */
+export function meshSendCheck(a: HealthFigures | null, acceptedBy: string | null, piecesInside = 0): SendCheck {
   if (!a) return { ok: false, reason: "This part has no mesh yet: upload one before sending it to the workshop." };
-  if (meshIsSound(a)) return { ok: true, accepted: false };
+  if (meshIsSound(a) && piecesInside === 0) return { ok: true, accepted: false };
   if (acceptedBy) return { ok: true, accepted: true };
-  const problems = meshProblems(a).map((p) => p.text);
+  const problems = meshProblems(a, piecesInside).map((p) => p.text);
   return { ok: false, reason: `The mesh is not a closed solid, so it cannot be sent: ${problems.join(" ")} Use “Repair the mesh” on the part page, upload a fixed file, or ask an operator to accept it as it is.` };
 }

@@ -5,6 +5,8 @@ import { db } from "@/db";
 import { partFiles, partOrientations, parts, users } from "@/db/schema";
 import { analysisToJson, analyzeSoup, readMesh, writeStl, type AnalysisJson } from "@/lib/mesh";
 import { repairMesh, type RepairReport } from "@/lib/mesh/repair";
+import { shellReport } from "@/lib/mesh/shells";
+import { weld } from "@/lib/mesh/weld";
 import { can } from "@/lib/permissions";
 import { meshIsSound, meshProblems, type HealthFigures, type MeshProblem } from "@/lib/rules/mesh-health";
 import type { MeshAcceptInput, MeshRepairInput } from "@/lib/validation/mesh-health";
@@ -49,10 +51,35 @@ export function snapshot(a: AnalysisJson): HealthSnapshot {
 
 const accepter = alias(users, "accepter");
 
+/** Solid pieces inside another, per stored file (files never change, so the answer is kept; at most 500). */
+const insideCache = new Map<number, number>();
+
+/**
+ * How many solid pieces of a closed mesh lie inside another (lib/mesh/shells): read from the stored
+ * file once per file. Only asked of meshes that are otherwise sound (a broken one goes to the repair,
+ * which finds them too).
+ */
+export async function piecesInsideOf(file: { fileId: number; sha256: string; units: "mm" | "in" }): Promise<number> {
+  const hit = insideCache.get(file.fileId);
+  if (hit !== undefined) return hit;
+  let n: number;
+  try {
+    const soup = readMesh(await blobStore().read(file.sha256), { units: file.units }).soup;
+    n = shellReport(weld(soup)).solidInside;
+  } catch (e) {
+    // A secondary check: the stored analysis already said the mesh is closed. Say so in the log, do not block.
+    console.warn(`[platewright] pieces-inside check skipped for file ${file.fileId}:`, e instanceof Error ? e.message : e);
+    return 0;
+  }
+  if (insideCache.size >= 500) insideCache.delete(insideCache.keys().next().value!);
+  insideCache.set(file.fileId, n);
+  return n;
+}
+
 /** The current file's health as the part page shows it: problems in plain words, who accepted it, the repair that made it. */
 export async function currentMeshHealth(partId: number) {
   const [row] = await db()
-    .select({ fileId: partFiles.id, analysis: partFiles.analysis, acceptedBy: accepter.name, acceptedAt: partFiles.acceptedBrokenAt, note: partFiles.acceptedBrokenNote, repair: partFiles.repairReport })
+    .select({ fileId: partFiles.id, sha256: partFiles.sha256, units: partFiles.units, analysis: partFiles.analysis, acceptedBy: accepter.name, acceptedAt: partFiles.acceptedBrokenAt, note: partFiles.acceptedBrokenNote, repair: partFiles.repairReport })
     .from(parts)
     .innerJoin(partFiles, eq(partFiles.id, parts.currentFileId))
     .leftJoin(accepter, eq(accepter.id, partFiles.acceptedBrokenBy))
@@ -61,7 +88,8 @@ export async function currentMeshHealth(partId: number) {
   if (!row) return null;
   const a = jsonOf<HealthFigures>(row.analysis);
   const repair = row.repair ? jsonOf<StoredRepair>(row.repair) : null;
-  const problems: MeshProblem[] = meshProblems(a, repair?.report.piecesInside ?? 0);
+  const inside = meshIsSound(a) ? await piecesInsideOf(row) : (repair?.report.piecesInside ?? 0);
+  const problems: MeshProblem[] = meshProblems(a, inside);
   return {
     fileId: row.fileId,
     sound: meshIsSound(a) && problems.length === 0,

@@ -6,11 +6,12 @@ import { MATERIALS } from "@/lib/estimate";
 import { can } from "@/lib/permissions";
 import { housingAllows, needsEnclosure } from "@/lib/plan/rules";
 import { fitVerdict } from "@/lib/rules/fit";
-import { meshSendCheck, type HealthFigures } from "@/lib/rules/mesh-health";
+import { meshIsSound, meshSendCheck, type HealthFigures } from "@/lib/rules/mesh-health";
 import { planWorkshop } from "@/lib/plan/plan";
 import type { PlanMetrics } from "@/lib/plan/schema";
 import { MEMBER_MAX_PRIORITY, type QueuePriorityInput, type QueueSendInput } from "@/lib/validation/queue";
 import { AppError } from "./errors";
+import { piecesInsideOf } from "./mesh-health";
 import { SPOOL_MARGIN } from "./materials";
 import { partAccess, requirePartEdit } from "./parts";
 import { effectiveGeometry, isSplit, jsonOf } from "./orientation";
@@ -31,7 +32,7 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
   await requirePartEdit(user, input.partId);
   if (input.priority > MEMBER_MAX_PRIORITY) throw invalid("Members may ask for normal or soon; the workshop sets rush priorities.", "priority");
   const [part] = await db()
-    .select({ name: parts.name, material: parts.material, colour: parts.colour, layerHeightMm: parts.layerHeightMm, walls: parts.walls, infillPercent: parts.infillPercent, ownerId: assemblies.ownerId, fileId: partFiles.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, analysis: partFiles.analysis, acceptedBrokenBy: partFiles.acceptedBrokenBy })
+    .select({ name: parts.name, material: parts.material, colour: parts.colour, layerHeightMm: parts.layerHeightMm, walls: parts.walls, infillPercent: parts.infillPercent, ownerId: assemblies.ownerId, fileId: partFiles.id, sizeX: partFiles.sizeX, sizeY: partFiles.sizeY, sizeZ: partFiles.sizeZ, analysis: partFiles.analysis, acceptedBrokenBy: partFiles.acceptedBrokenBy, sha256: partFiles.sha256, units: partFiles.units })
     .from(parts)
     .innerJoin(assemblies, eq(assemblies.id, parts.assemblyId))
     .leftJoin(partFiles, eq(partFiles.id, parts.currentFileId))
@@ -40,7 +41,9 @@ export async function sendToQueue(user: SessionUser, input: QueueSendInput): Pro
   if (await isSplit(input.partId)) throw invalid("This part was split into pieces: send the pieces instead.", "partId");
   if (part.fileId === null || part.sizeX === null || part.sizeY === null || part.sizeZ === null) throw invalid("This part has no mesh yet: upload one before sending it to the workshop.", "partId");
   // A mesh that is not a closed solid is not sent, unless an operator accepted it (lib/rules/mesh-health).
-  const health = meshSendCheck(jsonOf<HealthFigures>(part.analysis), part.acceptedBrokenBy === null ? null : String(part.acceptedBrokenBy));
+  const figures = jsonOf<HealthFigures>(part.analysis);
+  const inside = meshIsSound(figures) ? await piecesInsideOf({ fileId: part.fileId, sha256: part.sha256!, units: part.units! }) : 0;
+  const health = meshSendCheck(figures, part.acceptedBrokenBy === null ? null : String(part.acceptedBrokenBy), inside);
   if (!health.ok) throw invalid(health.reason, "partId");
   const type = materialKeyOf(part.material);
   // The member's chosen orientation for the current file decides how the part lies on the bed.

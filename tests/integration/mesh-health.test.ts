@@ -19,7 +19,7 @@ import type { SessionUser } from "@/lib/server/session";
 import { setBlobStore } from "@/lib/server/storage";
 import { receiveUpload } from "@/lib/server/uploads";
 import { queueSendInput } from "@/lib/validation/queue";
-import { box, flipTriangles } from "../fixtures/meshes";
+import { box, concat, flipTriangles } from "../fixtures/meshes";
 
 const root = mkdtempSync(path.join(tmpdir(), "pw-health-"));
 process.env.STORAGE_DIR = root;
@@ -122,5 +122,20 @@ describe("a mesh that is not a closed solid", () => {
     const { fileId } = await receiveUpload(owner, partId, body(writeStl(box(a, a, a))), { name: "cube.stl", units: "mm" });
     expect((await failure(repairPartMesh(owner, partId, { fileId }))).message).toMatch(/found nothing to fix/);
     expect((await failure(acceptBrokenMesh(operator, partId, { fileId, note: "fine" }))).code).toBe("invalid");
+  });
+});
+
+describe("solid pieces inside each other", () => {
+  it("are named on the part page and refused by the queue, though every edge is closed", async () => {
+    const { id: asm } = await createAssembly(owner, { name: "Nested", description: "" });
+    const partId = (await createPart(owner, asm, { name: "Nested cube", quantity: 1, material: "PLA", colour: "", notes: "" })).id;
+    // A 40 mm cube with a 10 mm cube inside it, both facing out: closed, but the volume counts the inner one twice.
+    await receiveUpload(owner, partId, body(writeStl(concat(box(40, 40, 40), box(10, 10, 10, [15, 15, 15])))), { name: "nested.stl", units: "mm" });
+    const d = await getPartDetail(owner, partId);
+    expect(d.health?.sound).toBe(false);
+    expect(d.health?.problems.map((p) => p.key)).toEqual(["pieces-inside"]);
+    expect(d.health?.problems[0]).toMatchObject({ repairable: false });
+    const e = await failure(send(partId));
+    expect(e.message).toMatch(/1 solid piece lies inside another/);
   });
 });

@@ -63,3 +63,15 @@ describe("repairMesh", () => {
     expect(report.holesClosed).toBe(0);
   });
 });
+
+describe("shellReport", () => {
+  it("counts pieces and finds a solid one inside another, but not a hollow", async () => {
+    const { shellReport } = await import("@/lib/mesh/shells");
+    const { weld } = await import("@/lib/mesh/weld");
+    expect(shellReport(weld(box(a, a, a)))).toEqual({ pieces: 1, solidInside: 0, checked: true });
+    expect(shellReport(weld(concat(box(40, 40, 40), box(10, 10, 10, [15, 15, 15]))))).toEqual({ pieces: 2, solidInside: 1, checked: true });
+    expect(shellReport(weld(concat(box(40, 40, 40), flipTriangles(box(10, 10, 10, [15, 15, 15]), () => true))))).toEqual({ pieces: 2, solidInside: 0, checked: true });
+    // Two cubes side by side: two pieces, neither inside the other.
+    expect(shellReport(weld(concat(box(10, 10, 10), box(10, 10, 10, [20, 0, 0]))))).toEqual({ pieces: 2, solidInside: 0, checked: true });
+  });
+});
