@@ -37,7 +37,9 @@ test("staff opening member pages get 403; an admin opening the admin's pages get
 });
 
 test("another member's assembly and part pages answer 404; the owner's 200", async () => {
-  expect((await page(api.other, `/bench/assemblies/${fx.assemblyId}`)).status()).toBe(404);
+  const hidden = await page(api.other, `/bench/assemblies/${fx.assemblyId}`);
+  expect(hidden.status()).toBe(404);
+  expect(await hidden.text()).toContain("No such assembly, or it is not shared with you");
   expect((await page(api.other, `/bench/parts/${fx.partId}`)).status()).toBe(404);
   expect((await page(api.owner, "/bench/assemblies/not-a-number")).status()).toBe(404);
   expect((await page(api.owner, `/bench/assemblies/${fx.assemblyId}`)).status()).toBe(200);
