@@ -101,6 +101,8 @@ export const plateItems = mysqlTable(
     sizeZ: double("size_z").notNull(),
     minutes: double("minutes").notNull(),
     grams: double("grams").notNull(),
+    /** The mesh version (part_files.id) the copy was planned with: the plate's 3MF is made from it. */
+    fileId: int("file_id"),
   },
   (t) => [
     uniqueIndex("plate_items_active_uq").on(t.activeInstanceId),

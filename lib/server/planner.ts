@@ -159,6 +159,8 @@ export const densityOf = (m: Map<MaterialType, { densityGcm3: number }>, t: Mate
 export interface QueuedInstance {
   key: string;
   instanceId: number;
+  /** The part's current mesh version when planned. */
+  fileId: number | null;
   memberId: number;
   partName: string;
   type: MaterialType;
@@ -202,6 +204,7 @@ export async function loadQueue(d: Executor, all: readonly PlanPrinter[], timezo
       layerHeightMm: parts.layerHeightMm,
       walls: parts.walls,
       infillPercent: parts.infillPercent,
+      fileId: partFiles.id,
       sizeX: partFiles.sizeX,
       sizeY: partFiles.sizeY,
       sizeZ: partFiles.sizeZ,
@@ -234,6 +237,7 @@ export async function loadQueue(d: Executor, all: readonly PlanPrinter[], timezo
     ready.push({
       key: `i${r.instanceId}`,
       instanceId: r.instanceId,
+      fileId: r.fileId,
       memberId: r.memberId,
       partName: r.partName,
       type,

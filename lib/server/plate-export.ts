@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq } from "drizzle-orm";
+import { and, asc, eq, sql } from "drizzle-orm";
 import { db } from "@/db";
 import { assemblies, partFiles, partInstances, partOrientations, parts, plateItems, plates, printers, users } from "@/db/schema";
 import { readMesh, write3mf, type TriangleSoup } from "@/lib/mesh";
@@ -29,7 +29,7 @@ export async function plateDetail(user: SessionUser, id: number) {
     .where(eq(plates.id, id));
   if (!p) throw noPlate();
   const rows = await d
-    .select({ itemId: plateItems.id, instanceId: plateItems.instanceId, memberId: plateItems.memberId, member: users.name, x: plateItems.x, y: plateItems.y, rotated: plateItems.rotated, sizeX: plateItems.sizeX, sizeY: plateItems.sizeY, sizeZ: plateItems.sizeZ, minutes: plateItems.minutes, grams: plateItems.grams, copyNo: partInstances.copyNo, partId: parts.id, partName: parts.name, assemblyName: assemblies.name, fileId: parts.currentFileId })
+    .select({ itemId: plateItems.id, instanceId: plateItems.instanceId, memberId: plateItems.memberId, member: users.name, x: plateItems.x, y: plateItems.y, rotated: plateItems.rotated, sizeX: plateItems.sizeX, sizeY: plateItems.sizeY, sizeZ: plateItems.sizeZ, minutes: plateItems.minutes, grams: plateItems.grams, copyNo: partInstances.copyNo, partId: parts.id, partName: parts.name, assemblyName: assemblies.name, fileId: sql<number | null>`COALESCE(${plateItems.fileId}, ${parts.currentFileId})` })
     .from(plateItems)
     .innerJoin(partInstances, eq(partInstances.id, plateItems.instanceId))
     .innerJoin(parts, eq(parts.id, partInstances.partId))

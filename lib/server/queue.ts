@@ -182,7 +182,7 @@ async function replanNow(user: SessionUser, now: Date): Promise<ReplanResult> {
         .values({ printerId, material: plate.material, colour: plate.color, plannedStart: new Date(plate.start), plannedEnd: new Date(plate.end), runsUnattended: plate.runs_unattended ? 1 : 0, caution: plate.caution, ...spoolChangeColumns(plate.spool_change), estimatedMinutes: quote.totalMinutes, estimatedGrams: quote.totalGrams, quote, quotedAt: now })
         .$returningId();
       const plateId = res!.id;
-      await tx.insert(plateItems).values(its.map(({ it, q }) => ({ plateId, instanceId: q.instanceId, activeInstanceId: q.instanceId, memberId: q.memberId, x: it.x, y: it.y, rotated: it.rotated ? 1 : 0, sizeX: q.sizeX, sizeY: q.sizeY, sizeZ: q.sizeZ, minutes: q.minutes, grams: q.grams })));
+      await tx.insert(plateItems).values(its.map(({ it, q }) => ({ plateId, instanceId: q.instanceId, activeInstanceId: q.instanceId, memberId: q.memberId, x: it.x, y: it.y, rotated: it.rotated ? 1 : 0, sizeX: q.sizeX, sizeY: q.sizeY, sizeZ: q.sizeZ, minutes: q.minutes, grams: q.grams, fileId: q.fileId })));
       const fresh = its.map(({ q }) => q.instanceId).filter((i) => !wasPlated.has(i));
       await moveInstances(tx, fresh, "queued", ["plated"], user.id, `Planned on ${plateLabel(plateId)}`);
       for (const { q } of its) nowPlated.add(q.instanceId);

@@ -1,0 +1,1 @@
+ALTER TABLE `plate_items` ADD `file_id` int;
