@@ -17,7 +17,12 @@ interface Pending {
   resolve(r: AnalyzeResult): void;
   reject(e: MeshJobError): void;
   onProgress?: (phase: ProgressPhase, fraction: number) => void;
+  /** Inside the STEP tessellator: one synchronous call that no cancel message can interrupt. */
+  tessellating?: boolean;
 }
+
+/** A STEP file still tessellating after this long is stopped by restarting the worker. */
+const TESSELLATE_LIMIT_MS = 60_000;
 
 function jobError(code: string, message: string): MeshJobError {
   return Object.assign(new Error(message), { name: "MeshJobError", code });
@@ -28,26 +33,58 @@ export function useMeshWorker() {
   const pending = useRef(new Map<number, Pending>());
   const nextId = useRef(1);
 
+  // Set by the effect: stop the worker (rejecting its jobs: `stuck` with `why`, the others as
+  // interrupted) and start a fresh one. The only way out of a tessellation that runs away.
+  const restart = useRef<(stuck: number, why: MeshJobError) => void>(() => undefined);
+
   useEffect(() => {
     const jobs = pending.current;
-    const w = new Worker(new URL("../../workers/mesh.worker.ts", import.meta.url), { type: "module" });
-    w.onmessage = (ev: MessageEvent<FromWorker>) => {
-      const m = ev.data;
-      const p = jobs.get(m.id);
-      if (!p) return;
-      if (m.type === "progress") { p.onProgress?.(m.phase, m.fraction); return; }
-      jobs.delete(m.id);
-      if (m.type === "result") p.resolve(m.result);
-      else if (m.type === "error") p.reject(jobError(m.code, m.message));
-      else p.reject(jobError("CANCELLED", "analysis cancelled"));
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    let stopped = false;
+    const start = () => {
+      const w = new Worker(new URL("../../workers/mesh.worker.ts", import.meta.url), { type: "module" });
+      w.onmessage = (ev: MessageEvent<FromWorker>) => {
+        const m = ev.data;
+        const p = jobs.get(m.id);
+        if (!p) return;
+        if (m.type === "progress") {
+          const tessellating = m.phase === "tessellate" && m.fraction < 1;
+          if (tessellating !== !!p.tessellating) {
+            p.tessellating = tessellating;
+            clearTimeout(timer);
+            if (tessellating) {
+              const id = m.id;
+              timer = setTimeout(() => restart.current(id, jobError("BAD_STEP", `the STEP file took longer than ${TESSELLATE_LIMIT_MS / 1000} s to tessellate and was stopped`)), TESSELLATE_LIMIT_MS);
+            }
+          }
+          p.onProgress?.(m.phase, m.fraction);
+          return;
+        }
+        if (p.tessellating) clearTimeout(timer);
+        jobs.delete(m.id);
+        if (m.type === "result") p.resolve(m.result);
+        else if (m.type === "error") p.reject(jobError(m.code, m.message));
+        else p.reject(jobError("CANCELLED", "analysis cancelled"));
+      };
+      w.onerror = (ev) => {
+        for (const p of jobs.values()) p.reject(jobError("INTERNAL", ev.message || "the mesh worker failed"));
+        jobs.clear();
+      };
+      worker.current = w;
     };
-    w.onerror = (ev) => {
-      for (const p of jobs.values()) p.reject(jobError("INTERNAL", ev.message || "the mesh worker failed"));
+    restart.current = (stuck, why) => {
+      if (stopped) return;
+      clearTimeout(timer);
+      worker.current?.terminate();
+      for (const [id, p] of jobs) p.reject(id === stuck ? why : jobError("CANCELLED", "the mesh worker was restarted; choose the file again"));
       jobs.clear();
+      start();
     };
-    worker.current = w;
+    start();
     return () => {
-      w.terminate();
+      stopped = true;
+      clearTimeout(timer);
+      worker.current?.terminate();
       worker.current = null;
       for (const p of jobs.values()) p.reject(jobError("CANCELLED", "the mesh worker was stopped"));
       jobs.clear();
@@ -78,6 +115,8 @@ export function useMeshWorker() {
       const cancel = () => {
         if (cancelled) return;
         cancelled = true;
+        // Inside the tessellator the worker cannot read a cancel message: restart it instead.
+        if (pending.current.get(id)?.tessellating) return restart.current(id, jobError("CANCELLED", "analysis cancelled"));
         worker.current?.postMessage({ type: "cancel", id } satisfies ToWorker);
         const p = pending.current.get(id);
         pending.current.delete(id);

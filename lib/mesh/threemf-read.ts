@@ -6,6 +6,9 @@ import { zipEntries, zipRead, type RawInflate, type ZipEntry } from "./zip";
 
 export { CORE_NS, MODEL_REL, PROD_NS, UNIT_MM } from "./threemf-model";
 
+/** Deepest component nesting read (a recursion bound; real files nest a few levels). */
+const MAX_NESTING = 256;
+
 export interface ThreeMfPart {
   objectId: string;
   name: string | undefined;
@@ -85,7 +88,8 @@ export function readThreeMf(zip: Uint8Array, opts: ThreeMfReadOptions = {}): { p
   // Count first (with cycle detection), so a component tree cannot make us allocate unboundedly.
   const counts = new Map<Obj, number>();
   const counting = new Set<Obj>();
-  const countOf = (ref: ObjRef, from: ModelPart): number => {
+  const countOf = (ref: ObjRef, from: ModelPart, depth: number): number => {
+    if (depth > MAX_NESTING) throw new MeshReadError("BAD_MODEL", `3MF model: components nested more than ${MAX_NESTING} deep`);
     const [o, p] = objectOf(ref, from);
     const known = counts.get(o);
     if (known !== undefined) return known;
@@ -93,7 +97,7 @@ export function readThreeMf(zip: Uint8Array, opts: ThreeMfReadOptions = {}): { p
     counting.add(o);
     let n = 0;
     if (o.kind === "mesh") n = o.nt;
-    else for (const c of o.comps) n += countOf(c, p);
+    else for (const c of o.comps) n += countOf(c, p, depth + 1);
     counting.delete(o);
     if (n > maxTris) throw new MeshReadError("TOO_LARGE", `the 3MF build would have ${n} triangles, over the ${maxTris} limit`);
     counts.set(o, n);
@@ -101,7 +105,7 @@ export function readThreeMf(zip: Uint8Array, opts: ThreeMfReadOptions = {}): { p
   };
   let total = 0;
   for (const it of root.items) {
-    total += countOf(it, root);
+    total += countOf(it, root, 0);
     if (total > maxTris) throw new MeshReadError("TOO_LARGE", `the 3MF build would have ${total} triangles, over the ${maxTris} limit`);
   }
   if (total === 0) throw new MeshReadError("NO_TRIANGLES", "the 3MF build contains no triangles");

@@ -89,6 +89,18 @@ describe("3MF Production Extension: objects in other model parts", () => {
   });
 });
 
+describe("component nesting", () => {
+  it("a chain of components deeper than 256 is a clear error, not a stack overflow", () => {
+    let objs = boxObject(1, 1, 1, 1);
+    for (let i = 2; i <= 2000; i++) objs += `<object id="${i}"><components><component objectid="${i - 1}"/></components></object>`;
+    const files = { "_rels/.rels": rels("/3D/3dmodel.model"), "3D/3dmodel.model": part(objs, "millimeter", `<build><item objectid="2000"/></build>`) };
+    expect(() => readMesh(pkg(files))).toThrow(/components nested more than 256 deep/);
+    // 200 levels read.
+    const ok = { ...files, "3D/3dmodel.model": part(objs, "millimeter", `<build><item objectid="200"/></build>`) };
+    expect(readMesh(pkg(ok)).soup.positions.length).toBe(12 * 9);
+  });
+});
+
 describe("the byte-level mesh loop reads what the general XML path reads", () => {
   // With the core namespace bound to a prefix (m:vertex), every element goes through the general
   // scanner; unprefixed, through the fast loop. Both must give the same soup, bit for bit.
