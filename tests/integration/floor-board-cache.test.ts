@@ -8,18 +8,13 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db, pool } from "@/db";
 import { changeGeneration, changesWatchedData } from "@/db/change-watch";
 import { outsideTransaction } from "@/db/tx-guard";
-import { assemblies, attendedHours, mailOutbox, partInstances, parts, printers, queueEntries, users, workshopSettings } from "@/db/schema";
+import { assemblies, attendedHours, mailOutbox, partInstances, parts, printers, queueEntries, workshopSettings } from "@/db/schema";
 import { floorBoard } from "@/lib/server/floor-board";
 import { cachedOpenIntervals, setAttendedHours } from "@/lib/server/hours";
 import { setPriority } from "@/lib/server/queue";
 import type { SessionUser } from "@/lib/server/session";
 import { attendedHoursInput } from "@/lib/validation/hours";
-
-async function user(email: string, role: SessionUser["role"]): Promise<SessionUser> {
-  await db().insert(users).ignore().values({ email, name: email.split("@")[0]!, role, passwordHash: "x" });
-  const [u] = await db().select({ id: users.id, email: users.email, name: users.name, role: users.role }).from(users).where(eq(users.email, email));
-  return u!;
-}
+import { user } from "./helpers";
 
 let operator: SessionUser, admin: SessionUser, member: SessionUser;
 let printerId = 0;

@@ -6,9 +6,8 @@
 import { and, eq, inArray, isNotNull } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db";
-import { assemblies, attendedHours, materials, meshBlobs, partFiles, partInstances, parts, plateItems, plates, printerMaterials, printers, spools, users, workshopSettings } from "@/db/schema";
+import { assemblies, attendedHours, materials, meshBlobs, partFiles, partInstances, parts, plateItems, plates, printerMaterials, printers, spools, workshopSettings } from "@/db/schema";
 import { assemblyCompletion } from "@/lib/server/assembly-completion";
-import { AppError } from "@/lib/server/errors";
 import { floorBoard } from "@/lib/server/floor-board";
 import { plateExtent } from "@/lib/server/plate-fit";
 import { movePlate } from "@/lib/server/plate-move";
@@ -19,22 +18,7 @@ import type { SessionUser } from "@/lib/server/session";
 import { getWorkshopSettings, updateWorkshopSettings } from "@/lib/server/workshop";
 import { queueSendInput } from "@/lib/validation/queue";
 import { workshopSettingsInput } from "@/lib/validation/workshop";
-
-async function user(email: string, role: SessionUser["role"]): Promise<SessionUser> {
-  await db().insert(users).ignore().values({ email, name: email.split("@")[0]!, role, passwordHash: "x" });
-  const [u] = await db().select({ id: users.id, email: users.email, name: users.name, role: users.role }).from(users).where(eq(users.email, email));
-  return u!;
-}
-
-async function outcome(p: Promise<unknown>): Promise<{ code: string; message: string }> {
-  try {
-    await p;
-    return { code: "ok", message: "" };
-  } catch (e) {
-    if (e instanceof AppError) return { code: e.code, message: e.message };
-    throw e;
-  }
-}
+import { outcome, user } from "./helpers";
 
 let member: SessionUser, operator: SessionUser, admin: SessionUser;
 const printer: Record<string, number> = {};

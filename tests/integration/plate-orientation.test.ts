@@ -10,7 +10,7 @@ import path from "node:path";
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, expect, it } from "vitest";
 import { closeDb, db } from "@/db";
-import { attendedHours, materials, plateItems, plates, printerMaterials, printers, spools, users, workshopSettings } from "@/db/schema";
+import { attendedHours, materials, plateItems, plates, printerMaterials, printers, spools, workshopSettings } from "@/db/schema";
 import { readMesh, writeStl } from "@/lib/mesh";
 import { createAssembly } from "@/lib/server/assemblies";
 import { chooseOrientation } from "@/lib/server/orientation";
@@ -22,6 +22,7 @@ import { setBlobStore } from "@/lib/server/storage";
 import { receiveUpload } from "@/lib/server/uploads";
 import { queueSendInput } from "@/lib/validation/queue";
 import { box } from "../fixtures/meshes";
+import { user } from "./helpers";
 
 const root = mkdtempSync(path.join(tmpdir(), "pw-plate-orient-"));
 process.env.STORAGE_DIR = root;
@@ -39,12 +40,6 @@ function lib3mfReader(): string | null {
   } catch {
     return null;
   }
-}
-
-async function user(email: string, role: SessionUser["role"]): Promise<SessionUser> {
-  await db().insert(users).ignore().values({ email, name: email.split("@")[0]!, role, passwordHash: "x" });
-  const [u] = await db().select({ id: users.id, email: users.email, name: users.name, role: users.role }).from(users).where(eq(users.email, email));
-  return u!;
 }
 
 beforeAll(async () => {

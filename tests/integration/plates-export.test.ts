@@ -7,7 +7,7 @@ import path from "node:path";
 import { and, eq, sql } from "drizzle-orm";
 import { afterAll, beforeAll, expect, it } from "vitest";
 import { closeDb, db } from "@/db";
-import { assemblies, attendedHours, materials, meshBlobs, partFiles, partInstances, parts, plateItems, plates, printerMaterials, printers, spools, users, workshopSettings } from "@/db/schema";
+import { assemblies, attendedHours, materials, meshBlobs, partFiles, partInstances, parts, plateItems, plates, printerMaterials, printers, spools, workshopSettings } from "@/db/schema";
 import { readMesh, writeStl } from "@/lib/mesh";
 import { plate3mf, plateDetail } from "@/lib/server/plate-export";
 import { replan, sendToQueue } from "@/lib/server/queue";
@@ -15,12 +15,7 @@ import type { SessionUser } from "@/lib/server/session";
 import { LocalStore, setBlobStore } from "@/lib/server/storage";
 import { queueSendInput } from "@/lib/validation/queue";
 import { box } from "../fixtures/meshes";
-
-async function user(email: string, role: SessionUser["role"]): Promise<SessionUser> {
-  await db().insert(users).ignore().values({ email, name: email.split("@")[0]!, role, passwordHash: "x" });
-  const [u] = await db().select({ id: users.id, email: users.email, name: users.name, role: users.role }).from(users).where(eq(users.email, email));
-  return u!;
-}
+import { user } from "./helpers";
 
 let member: SessionUser, other: SessionUser, operator: SessionUser;
 let printerId = 0;

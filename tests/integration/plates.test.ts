@@ -18,31 +18,14 @@ import {
   printers,
   printHistory,
   spools,
-  users,
   workshopSettings,
 } from "@/db/schema";
-import { AppError } from "@/lib/server/errors";
 import { cancelPlate, failPlate, finishPlate, startPlate } from "@/lib/server/plates";
 import { partSchedule, replan, sendToQueue } from "@/lib/server/queue";
 import type { SessionUser } from "@/lib/server/session";
 import { queueSendInput } from "@/lib/validation/queue";
 import { plateFinishInput } from "@/lib/validation/plates";
-
-async function user(email: string, role: SessionUser["role"]): Promise<SessionUser> {
-  await db().insert(users).ignore().values({ email, name: email.split("@")[0]!, role, passwordHash: "x" });
-  const [u] = await db().select({ id: users.id, email: users.email, name: users.name, role: users.role }).from(users).where(eq(users.email, email));
-  return u!;
-}
-
-async function outcome(p: Promise<unknown>): Promise<{ code: string; message: string }> {
-  try {
-    await p;
-    return { code: "ok", message: "" };
-  } catch (e) {
-    if (e instanceof AppError) return { code: e.code, message: e.message };
-    throw e;
-  }
-}
+import { outcome, user } from "./helpers";
 
 let member: SessionUser, member2: SessionUser, operator: SessionUser;
 let printerId = 0;

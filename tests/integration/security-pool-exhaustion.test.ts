@@ -13,12 +13,7 @@ import { startPlate } from "@/lib/server/plates";
 import { replan, sendToQueue } from "@/lib/server/queue";
 import type { SessionUser } from "@/lib/server/session";
 import { queueSendInput } from "@/lib/validation/queue";
-
-async function user(email: string, role: SessionUser["role"]): Promise<SessionUser> {
-  await db().insert(users).ignore().values({ email, name: email.split("@")[0]!, role, passwordHash: "x" });
-  const [u] = await db().select({ id: users.id, email: users.email, name: users.name, role: users.role }).from(users).where(eq(users.email, email));
-  return u!;
-}
+import { user } from "./helpers";
 
 let member: SessionUser, operator: SessionUser;
 let printerId = 0;
