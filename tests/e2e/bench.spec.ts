@@ -1,32 +1,15 @@
 // The Bench end to end: an assembly with a sub-assembly, two uploads with progress, the 3D view,
 // figures equal to lib/mesh's own (the analyse CLI prints the same analysisToJson record), a hardware
 // item, the bill of materials, and sharing with a second member.
-import { expect, test, type Page } from "@playwright/test";
+import { expect, test } from "@playwright/test";
 import { readFile } from "node:fs/promises";
 import { analysisToJson, analyzeBytes, write3mf, writeStl } from "../../lib/mesh";
 import { box, concat, prism, translate } from "../fixtures/meshes";
-import { authFile, demo } from "./helpers";
+import { authFile, demo, canvasColours } from "./helpers";
 
 // Our own generated parts: a perch (box with a peg) as binary STL and a roof panel as 3MF.
 const stl = writeStl(concat(box(40, 30, 20), translate(prism(12, 5, 15), [20, 15, 20])));
 const threeMf = write3mf([{ name: "roof panel", mesh: box(60, 45, 4) }]);
-
-/** Number of distinct colours in the WebGL canvas, read back through a 2D canvas. */
-async function canvasColours(page: Page): Promise<number> {
-  return page.evaluate(() => {
-    const c = document.querySelector<HTMLCanvasElement>('[data-testid="part-viewer"] canvas');
-    if (!c) return 0;
-    const t = document.createElement("canvas");
-    t.width = c.width;
-    t.height = c.height;
-    const ctx = t.getContext("2d")!;
-    ctx.drawImage(c, 0, 0);
-    const d = ctx.getImageData(0, 0, t.width, t.height).data;
-    const seen = new Set<number>();
-    for (let i = 0; i < d.length; i += 4 * 7) seen.add((d[i]! << 16) | (d[i + 1]! << 8) | d[i + 2]!);
-    return seen.size;
-  });
-}
 
 test.describe("the Bench", () => {
   test.use({ storageState: authFile("member") });

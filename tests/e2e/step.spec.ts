@@ -2,30 +2,14 @@
 // the browser's mesh worker for its preview, uploaded, tessellated again on the server; the part page
 // shows the same figures as the CLI (lib/mesh-node analyzeFile) and draws it in the 3D view; the
 // original STEP and the 3MF made from it can both be downloaded.
-import { expect, test, type Page } from "@playwright/test";
+import { expect, test } from "@playwright/test";
 import { readFile } from "node:fs/promises";
 import { analysisToJson } from "../../lib/mesh";
 import { analyzeFile } from "../../lib/mesh-node/step";
 import { boxSolid, cylinderSolid, stepFile } from "../fixtures/step";
-import { authFile } from "./helpers";
+import { authFile, canvasColours } from "./helpers";
 
 const step = new TextEncoder().encode(stepFile("in", (w) => [boxSolid(w, 1, 2, 0.5), cylinderSolid(w, 0.25, 1, [2, 0, 0])]));
-
-async function canvasColours(page: Page): Promise<number> {
-  return page.evaluate(() => {
-    const c = document.querySelector<HTMLCanvasElement>('[data-testid="part-viewer"] canvas');
-    if (!c) return 0;
-    const t = document.createElement("canvas");
-    t.width = c.width;
-    t.height = c.height;
-    const ctx = t.getContext("2d")!;
-    ctx.drawImage(c, 0, 0);
-    const d = ctx.getImageData(0, 0, t.width, t.height).data;
-    const seen = new Set<number>();
-    for (let i = 0; i < d.length; i += 4 * 7) seen.add((d[i]! << 16) | (d[i + 1]! << 8) | d[i + 2]!);
-    return seen.size;
-  });
-}
 
 test.describe("STEP import", () => {
   test.use({ storageState: authFile("member") });
