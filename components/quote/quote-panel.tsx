@@ -40,6 +40,7 @@ interface Option {
 interface Quote {
   currency: string;
   material: { id: number; name: string; pricePerKgCents: number; densityGcm3: number; densitySource: string };
+  fee: { plateFeeCents: number; membersPerPlate: number; platesSeen: number; shareCents: number };
   options: Option[];
   quotedAt: string;
 }
@@ -94,7 +95,13 @@ function QuoteTable({ quote, withSupport }: { quote: Quote; withSupport: boolean
       )}
       <p className="text-xs text-ink-soft">
         {quote.material.name} at {m(quote.material.pricePerKgCents)} per kg, {quote.material.densityGcm3} g/cm³ ({quote.material.densitySource}).
-        {" "}The fee is the whole plate&apos;s: it is split evenly between the members whose parts share the plate, so your share is at most this.
+        {" "}
+        <span data-testid="quote-fee-share">
+          Fee: your share of the {m(quote.fee.plateFeeCents)} plate fee, which is split evenly between the members on a plate
+          {quote.fee.platesSeen
+            ? ` (${quote.fee.membersPerPlate.toFixed(1)} members a plate on average over the last ${quote.fee.platesSeen} plates); the Ledger charges the actual split.`
+            : " (no plates finished yet, so the whole fee); the Ledger charges the actual split."}
+        </span>
         {withSupport ? " Grams and time include the support the chosen orientation needs." : ""}
       </p>
       <div className="overflow-x-auto">

@@ -13,9 +13,9 @@ import {
 import { can } from "@/lib/permissions";
 import { fitOnPrinter } from "@/lib/rules/fit";
 import type { MaterialType } from "@/db/schema";
-import { inArray } from "drizzle-orm";
+import { desc, eq, inArray, sql } from "drizzle-orm";
 import { db } from "@/db";
-import { partFiles } from "@/db/schema";
+import { partFiles, plateItems, plates } from "@/db/schema";
 import { materialKeyOf, type QuoteAssemblyInput, type QuotePartInput } from "@/lib/validation/printers";
 import { AppError } from "./errors";
 import { materialPrices } from "./materials";
@@ -58,6 +58,8 @@ export interface PrinterQuote {
 export interface PartQuote {
   currency: string;
   material: QuoteMaterial;
+  /** The plate fee as the Ledger shares it: split evenly between the members on a plate (feeShare). */
+  fee: FeeShare;
   /** Printers allowed this material, cheapest first among those the part fits; misfits last. */
   options: PrinterQuote[];
   quotedAt: string;
@@ -118,21 +120,54 @@ function priceOn(p: Printer, input: QuotePartInput, material: QuoteMaterial, fee
   };
 }
 
+export interface FeeShare {
+  plateFeeCents: number;
+  /** Distinct members per plate over the last finished plates (1 when there are none yet). */
+  membersPerPlate: number;
+  platesSeen: number;
+  /** plateFeeCents ÷ membersPerPlate, rounded: what a copy's quote carries as its fee. */
+  shareCents: number;
+}
+
+/** How many finished plates the fee share looks back over. */
+const FEE_SHARE_PLATES = 50;
+
+/**
+ * The plate fee as it is really shared: the Ledger splits a plate's fee evenly between the members
+ * whose copies are on it (memberCharges), so a quote carries the fee divided by the members a plate
+ * has had on average over the workshop's last finished plates (the whole fee before there are any).
+ */
+export async function feeShare(plateFeeCents: number): Promise<FeeShare> {
+  const recent = db()
+    .select({ plateId: plateItems.plateId, members: sql<number>`COUNT(DISTINCT ${plateItems.memberId})`.as("members") })
+    .from(plateItems)
+    .innerJoin(plates, eq(plates.id, plateItems.plateId))
+    .where(eq(plates.status, "finished"))
+    .groupBy(plateItems.plateId, plates.endedAt)
+    .orderBy(desc(plates.endedAt))
+    .limit(FEE_SHARE_PLATES)
+    .as("recent");
+  const [row] = await db().select({ avg: sql<number | null>`AVG(${recent.members})`, n: sql<number>`COUNT(*)` }).from(recent);
+  const membersPerPlate = Math.max(1, Number(row?.avg ?? 1));
+  return { plateFeeCents, membersPerPlate, platesSeen: Number(row?.n ?? 0), shareCents: Math.round(plateFeeCents / membersPerPlate) };
+}
+
 /**
  * The price of one part on every printer that may print its material: grams × price per kg +
- * hours × rate (both after the printer's calibration) + the workshop's plate fee, cheapest first.
+ * hours × rate (both after the printer's calibration) + its share of the plate fee (feeShare), cheapest first.
  */
 export async function quotePart(user: SessionUser, input: QuotePartInput): Promise<PartQuote> {
   if (!can(user.role, "quotes:request")) throw new AppError("forbidden", "Your role may not ask for quotes.");
   const [settings, material, printers] = await Promise.all([getWorkshopSettings(), pickMaterial(input), listPrinters(user)]);
+  const fee = await feeShare(settings.plateFeeCents);
   const able = printers.filter((p) => p.materials.includes(input.material));
   if (!able.length) {
     throw new AppError("invalid", `No printer here may print ${MATERIALS[input.material].name}.`, { material: ["No printer takes this material."] });
   }
   const options = able
-    .map((p) => priceOn(p, input, material, settings.plateFeeCents))
+    .map((p) => priceOn(p, input, material, fee.shareCents))
     .sort((a, b) => Number(b.fits) - Number(a.fits) || a.cost.totalCents - b.cost.totalCents || a.printerName.localeCompare(b.printerName));
-  return { currency: settings.currency, material, options, quotedAt: new Date().toISOString() };
+  return { currency: settings.currency, material, fee, options, quotedAt: new Date().toISOString() };
 }
 
 export interface AssemblyQuoteResult extends AssemblyQuote {
