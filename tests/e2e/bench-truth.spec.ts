@@ -34,6 +34,8 @@ test("choosing an orientation changes the view, the figures and the quote, and s
   await expect(figures).toContainText("as drawn in the file");
   await expect(figures).toContainText("50 × 10 mm, 40 mm high");
   const quoteBefore = await page.getByTestId("quote-best").innerText({ timeout: 30_000 });
+  // The fee the quote carries is the member's share of the plate fee, as the Ledger splits it.
+  await expect(page.getByTestId("quote-fee-share")).toContainText(/your share of the .* plate fee/);
 
   await page.getByRole("button", { name: "Find orientations" }).click();
   const ranked = page.getByRole("list", { name: "Ranked orientations" });
