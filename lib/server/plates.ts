@@ -166,7 +166,8 @@ export async function unattended(d: Executor, start: Date, end: Date, material?:
   return { runsUnattended: late ? 1 : 0, caution: cautions.length ? cautions.join(" ") : null };
 }
 
-export const bump = { version: sql`${plates.version} + 1`, updatedAt: new Date() };
+// updated_at is the database's clock at each update (a Date here would be the time this module loaded).
+export const bump = { version: sql`${plates.version} + 1`, updatedAt: sql`CURRENT_TIMESTAMP(3)` };
 
 async function itemsOf(tx: Tx, plateId: number) {
   return tx

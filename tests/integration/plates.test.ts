@@ -168,9 +168,14 @@ describe("plate actions", () => {
     await replan(operator);
     const [p] = await livePlates();
     const started = await startPlate(operator, p!.id, { version: p!.version });
+    const [afterStart] = await db().select({ at: plates.updatedAt }).from(plates).where(eq(plates.id, p!.id));
     const ids = (await db().select({ i: plateItems.instanceId }).from(plateItems).where(eq(plateItems.plateId, p!.id))).map((x) => x.i);
     const before = await db().select({ id: partInstances.id, r: partInstances.reprints }).from(partInstances).where(inArray(partInstances.id, ids));
+    await new Promise((r) => setTimeout(r, 20));
     await failPlate(operator, p!.id, { version: started.version, reason: "Warped off the bed" });
+    // Each action stamps the plate with the time it happened.
+    const [afterFail] = await db().select({ at: plates.updatedAt }).from(plates).where(eq(plates.id, p!.id));
+    expect(afterFail!.at.getTime()).toBeGreaterThan(afterStart!.at.getTime());
     const after = await db().select({ id: partInstances.id, s: partInstances.status, r: partInstances.reprints }).from(partInstances).where(inArray(partInstances.id, ids));
     for (const a of after) {
       expect(a.s).toBe("queued");
