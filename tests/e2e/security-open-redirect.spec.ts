@@ -2,23 +2,13 @@
 // the browser to another origin after sign-in. Browsers read "/\host" and "/<tab>/host" like "//host"
 // (WHATWG URL Standard); the callback is now parsed and must be on our origin.
 import { expect, test } from "@playwright/test";
-import type mysql from "mysql2/promise";
-import { baseURL, e2eDb } from "./security-fixtures";
-import { PASSWORD, throwawayAccount } from "./sign-in-http";
+import { baseURL } from "./security-fixtures";
+import { PASSWORD, throwawayAccounts } from "./sign-in-http";
 
-let conn: mysql.Connection;
-const made: string[] = [];
-
-test.beforeAll(async () => {
-  conn = await e2eDb();
-});
-test.afterAll(async () => {
-  for (const e of made) await conn.query("DELETE FROM users WHERE email = ?", [e]);
-  await conn.end();
-});
+const accounts = throwawayAccounts();
 
 test("the callback after sign-in never leaves our origin", async ({ page }) => {
-  const email = await throwawayAccount(conn, made, "redirect");
+  const email = await accounts.make("redirect");
   for (const cb of ["/\\127.0.0.1:4252/", "/\t/127.0.0.1:4252/", "//127.0.0.1:4252/", "http://127.0.0.1:4252/"]) {
     await page.context().clearCookies();
     await page.goto(`/sign-in?callbackUrl=${encodeURIComponent(cb)}`);
@@ -31,7 +21,7 @@ test("the callback after sign-in never leaves our origin", async ({ page }) => {
 });
 
 test("a callback on our own origin is still followed", async ({ page }) => {
-  const email = await throwawayAccount(conn, made, "redirect-ok");
+  const email = await accounts.make("redirect-ok");
   await page.goto(`/sign-in?callbackUrl=${encodeURIComponent("/ledger")}`);
   await page.getByLabel("E-mail").fill(email);
   await page.getByLabel("Password").fill(PASSWORD);

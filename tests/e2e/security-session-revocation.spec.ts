@@ -1,23 +1,13 @@
 // Finding 3 (issue 17) against the running server: after sign-out an old session cookie kept working
 // for its 12 hours. Now every session of the account ends (lib/server/session-version.ts).
 import { expect, test } from "@playwright/test";
-import type mysql from "mysql2/promise";
-import { baseURL, e2eDb } from "./security-fixtures";
-import { httpSignIn, PASSWORD, throwawayAccount } from "./sign-in-http";
+import { baseURL } from "./security-fixtures";
+import { httpSignIn, PASSWORD, throwawayAccounts } from "./sign-in-http";
 
-let conn: mysql.Connection;
-const made: string[] = [];
-
-test.beforeAll(async () => {
-  conn = await e2eDb();
-});
-test.afterAll(async () => {
-  for (const e of made) await conn.query("DELETE FROM users WHERE email = ?", [e]);
-  await conn.end();
-});
+const accounts = throwawayAccounts();
 
 test("an old session cookie stops working after sign-out, on every device", async () => {
-  const email = await throwawayAccount(conn, made, "revoke");
+  const email = await accounts.make("revoke");
   const laptop = await httpSignIn(email, PASSWORD);
   const phone = await httpSignIn(email, PASSWORD);
   expect((await fetch(`${baseURL}/api/me`, { headers: { cookie: laptop.cookie } })).status).toBe(200);
